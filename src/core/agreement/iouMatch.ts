@@ -1,0 +1,175 @@
+import Flatbush from 'flatbush';
+import { extentOfRings, multiPolygonArea } from '../geometry/measure.ts';
+import { intersectionArea } from '../geometry/overlay.ts';
+import type { Extent, MultiPolygonRings } from '../geometry/types.ts';
+import { maxWeightMatching } from './hungarian.ts';
+
+/** One outline of a delineation, in a projected CRS (metres). */
+export interface Outline {
+  id: string;
+  rings: MultiPolygonRings;
+}
+
+export interface MatchedPair {
+  /** Index into the first delineation. */
+  first: number;
+  /** Index into the second delineation. */
+  second: number;
+  iou: number;
+  /** Shared area, in the squared units of the coordinates. */
+  intersection: number;
+}
+
+export interface IouMatching {
+  minIou: number;
+  pairs: MatchedPair[];
+  /** Indices of first-delineation outlines left without a partner. */
+  unmatchedFirst: number[];
+  unmatchedSecond: number[];
+  /** Areas of every outline, in input order. */
+  firstAreas: number[];
+  secondAreas: number[];
+  /** How many pairs reached the threshold (candidates for the assignment). */
+  candidates: number;
+}
+
+export interface IouMatchOptions {
+  /** Smallest IoU a pair may have to be matched; default 0.5. */
+  minIou?: number;
+  /**
+   * Finds the outlines of `second` whose extents meet `extent`; defaults to a
+   * flatbush index. The benchmark swaps in a scan of all pairs.
+   */
+  candidatesOf?: (secondExtents: Extent[]) => (extent: Extent) => number[];
+}
+
+/** The default candidate search: a packed R-tree (flatbush) over the second set's extents. */
+export function flatbushCandidates(extents: Extent[]): (extent: Extent) => number[] {
+  if (extents.length === 0) return () => [];
+  const index = new Flatbush(extents.length);
+  for (const e of extents) index.add(e[0], e[1], e[2], e[3]);
+  index.finish();
+  return (e) => index.search(e[0], e[1], e[2], e[3]);
+}
+
+/** Candidate search without an index: every extent is tested (the baseline). */
+export function allPairsCandidates(extents: Extent[]): (extent: Extent) => number[] {
+  return (e) => {
+    const hits: number[] = [];
+    for (let i = 0; i < extents.length; i++) {
+      const o = extents[i];
+      if (o[0] <= e[2] && o[2] >= e[0] && o[1] <= e[3] && o[3] >= e[1]) hits.push(i);
+    }
+    return hits;
+  };
+}
+
+function overlapOfExtents(a: Extent, b: Extent): number {
+  const w = Math.min(a[2], b[2]) - Math.max(a[0], b[0]);
+  const h = Math.min(a[3], b[3]) - Math.max(a[1], b[1]);
+  return w > 0 && h > 0 ? w * h : 0;
+}
+
+export interface CandidatePairs {
+  /** Every pair at or above the threshold, with its IoU and shared area. */
+  edges: MatchedPair[];
+  firstAreas: number[];
+  secondAreas: number[];
+}
+
+/** Finds every pair of outlines whose IoU reaches `minIou`, clipping only where bounds allow it. */
+export function candidatePairs(first: readonly Outline[], second: readonly Outline[], options: IouMatchOptions = {}): CandidatePairs {
+  const minIou = checkedMinIou(options.minIou);
+  const firstAreas = first.map((o) => multiPolygonArea(o.rings));
+  const secondAreas = second.map((o) => multiPolygonArea(o.rings));
+  const firstExtents = first.map((o) => extentOfRings(o.rings));
+  const secondExtents = second.map((o) => extentOfRings(o.rings));
+  const search = (options.candidatesOf ?? flatbushCandidates)(secondExtents);
+
+  const edges: MatchedPair[] = [];
+  for (let i = 0; i < first.length; i++) {
+    const areaA = firstAreas[i];
+    if (!(areaA > 0)) continue;
+    for (const j of search(firstExtents[i])) {
+      const areaB = secondAreas[j];
+      if (!(areaB > 0)) continue;
+      // Cheap upper bounds on IoU (area ratio, extent overlap) before any clipping.
+      if (Math.min(areaA, areaB) / Math.max(areaA, areaB) < minIou) continue;
+      const bound = Math.min(overlapOfExtents(firstExtents[i], secondExtents[j]), areaA, areaB);
+      if (bound / (areaA + areaB - bound) < minIou) continue;
+      const shared = intersectionArea(first[i].rings, second[j].rings);
+      const iou = shared / (areaA + areaB - shared);
+      if (iou >= minIou) edges.push({ first: i, second: j, iou, intersection: shared });
+    }
+  }
+  return { edges, firstAreas, secondAreas };
+}
+
+function checkedMinIou(minIou = 0.5): number {
+  if (!(minIou > 0 && minIou <= 1)) throw new RangeError(`minimum IoU must be in (0, 1], got ${minIou}`);
+  return minIou;
+}
+
+/**
+ * Matches two delineations of the same area one-to-one by IoU: pairs at or above
+ * `minIou` are candidates, and the assignment of largest total IoU among them is
+ * chosen (Kuhn–Munkres, run on each connected group of candidates so that large
+ * delineations stay fast). A greedy "best pair first" choice can lose matches; the
+ * optimal assignment cannot.
+ */
+export function matchByIou(first: readonly Outline[], second: readonly Outline[], options: IouMatchOptions = {}): IouMatching {
+  const minIou = checkedMinIou(options.minIou);
+  const { edges, firstAreas, secondAreas } = candidatePairs(first, second, options);
+  const pairs = assignByGroup(first.length, second.length, edges);
+  const matchedFirst = new Set(pairs.map((p) => p.first));
+  const matchedSecond = new Set(pairs.map((p) => p.second));
+  return {
+    minIou,
+    pairs,
+    unmatchedFirst: first.map((_, i) => i).filter((i) => !matchedFirst.has(i)),
+    unmatchedSecond: second.map((_, j) => j).filter((j) => !matchedSecond.has(j)),
+    firstAreas,
+    secondAreas,
+    candidates: edges.length,
+  };
+}
+
+/** Splits the candidate graph into connected groups and assigns each optimally. */
+function assignByGroup(firstCount: number, secondCount: number, edges: MatchedPair[]): MatchedPair[] {
+  // Union-find over nodes: first outlines 0..firstCount-1, second ones after them.
+  const parent = Int32Array.from({ length: firstCount + secondCount }, (_, i) => i);
+  const find = (x: number): number => {
+    while (parent[x] !== x) {
+      parent[x] = parent[parent[x]];
+      x = parent[x];
+    }
+    return x;
+  };
+  for (const e of edges) parent[find(e.first)] = find(firstCount + e.second);
+  const groups = new Map<number, MatchedPair[]>();
+  for (const e of edges) {
+    const root = find(e.first);
+    let list = groups.get(root);
+    if (!list) groups.set(root, (list = []));
+    list.push(e);
+  }
+  const chosen: MatchedPair[] = [];
+  for (const list of groups.values()) {
+    if (list.length === 1) {
+      chosen.push(list[0]);
+      continue;
+    }
+    const rows = [...new Set(list.map((e) => e.first))];
+    const columns = [...new Set(list.map((e) => e.second))];
+    const rowAt = new Map(rows.map((r, i) => [r, i] as const));
+    const columnAt = new Map(columns.map((c, i) => [c, i] as const));
+    const weights = rows.map(() => new Array<number>(columns.length).fill(0));
+    const edgeAt = new Map<string, MatchedPair>();
+    for (const e of list) {
+      weights[rowAt.get(e.first)!][columnAt.get(e.second)!] = e.iou;
+      edgeAt.set(`${e.first} ${e.second}`, e);
+    }
+    for (const [r, c] of maxWeightMatching(weights)) chosen.push(edgeAt.get(`${rows[r]} ${columns[c]}`)!);
+  }
+  return chosen.sort((a, b) => a.first - b.first);
+}
