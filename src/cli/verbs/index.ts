@@ -1,5 +1,7 @@
 import type { Verb } from '../verb.ts';
+import { agree } from './agree.ts';
 
 // One line per verb; each verb lives in its own file beside this one.
 export const verbs: Verb[] = [
+  agree,
 ];

@@ -89,9 +89,10 @@ export function cohenKappa(m: ConfusionMatrix): CohenKappa {
   const variance =
     (diagonalTerm + (1 - kappa) ** 2 * offDiagonalTerm - (kappa - pe * (1 - kappa)) ** 2) / ((1 - pe) ** 2 * n);
   const varianceNull = (pe + pe * pe - nullTerm) / ((1 - pe) ** 2 * n);
-  // Rounding can leave a tiny negative variance at perfect agreement; it is zero.
-  const se = Math.sqrt(Math.max(0, variance));
-  const seNull = Math.sqrt(Math.max(0, varianceNull));
+  // Where the variance is zero in exact arithmetic (perfect agreement, one side using a
+  // single class) rounding leaves ±1e-17 or so; report it as zero, not as its root.
+  const se = Math.sqrt(variance > 1e-15 ? variance : 0);
+  const seNull = Math.sqrt(varianceNull > 1e-15 ? varianceNull : 0);
   const low = Math.max(-1, kappa - Z_975 * se);
   const high = Math.min(1, kappa + Z_975 * se);
   return {
