@@ -1,0 +1,132 @@
+// The bridge in a plain browser: picked files are File objects kept behind opaque ids,
+// demo files are read from the serving origin by HTTP ranges, saving is a download
+// (or the File System Access API where the browser has it).
+
+import { demoNameSegments } from './demo-name.ts';
+import { PlatformError, throwIfAborted } from './errors.ts';
+import { fetchRange, fetchSize, type FetchLike } from './http-range.ts';
+import { checkRangeArguments, clampRangeEnd } from './range.ts';
+import type { FileRef, PickOptions, Platform } from './types.ts';
+
+export interface BrowserPlatformOptions {
+  /** Base URL of the demo folder. Default: `./demo/` beside the page. */
+  demoBaseUrl?: string;
+  /** The fetch to use. Default: the global fetch. */
+  fetch?: FetchLike;
+  /** The document that hosts the file input and download link. Default: the global document. */
+  document?: Document;
+}
+
+type Entry = { kind: 'picked'; file: Blob; ref: FileRef } | { kind: 'demo'; url: string; ref: FileRef };
+
+/** The File System Access API's save picker, present in Chromium-based browsers. */
+type SavePicker = (options: { suggestedName: string }) => Promise<{
+  createWritable(): Promise<{ write(data: Blob): Promise<void>; close(): Promise<void> }>;
+}>;
+
+export class BrowserPlatform implements Platform {
+  readonly kind = 'browser';
+  readonly #entries = new Map<string, Entry>();
+  readonly #demoBaseUrl: string | undefined;
+  readonly #fetch: FetchLike;
+  readonly #document: Document | undefined;
+
+  constructor(options: BrowserPlatformOptions = {}) {
+    this.#demoBaseUrl = options.demoBaseUrl;
+    this.#fetch = options.fetch ?? ((input, init) => fetch(input, init));
+    this.#document = options.document ?? (typeof document === 'undefined' ? undefined : document);
+  }
+
+  /** Registers a File (or Blob with a name) as if the user had picked it, e.g. after a drop. */
+  adoptFile(file: Blob, name: string = file instanceof File ? file.name : 'file'): FileRef {
+    const ref: FileRef = { id: newId(), name, size: file.size };
+    this.#entries.set(ref.id, { kind: 'picked', file, ref });
+    return { ...ref };
+  }
+
+  pickFiles(options: PickOptions): Promise<FileRef[]> {
+    const doc = this.#requireDocument('picking files');
+    return new Promise((resolve) => {
+      const input = doc.createElement('input');
+      input.type = 'file';
+      input.multiple = options.multiple === true;
+      input.accept = options.extensions.map((ext) => `.${ext.replace(/^\./, '')}`).join(',');
+      input.addEventListener('change', () => {
+        resolve(Array.from(input.files ?? [], (file) => this.adoptFile(file)));
+      }, { once: true });
+      input.addEventListener('cancel', () => resolve([]), { once: true });
+      input.click();
+    });
+  }
+
+  async readRange(file: FileRef, offset: number, length: number, signal?: AbortSignal): Promise<Uint8Array> {
+    const entry = this.#entries.get(file?.id);
+    if (!entry) throw new PlatformError('unknown-file', 'this file was not picked in this window', file?.name);
+    checkRangeArguments(offset, length, entry.ref.name);
+    throwIfAborted(signal, entry.ref.name);
+    const end = clampRangeEnd(entry.ref.size, offset, length, entry.ref.name);
+    if (entry.kind === 'demo') return fetchRange(this.#fetch, entry.url, entry.ref.name, offset, end, signal);
+    let buffer: ArrayBuffer;
+    try {
+      buffer = await entry.file.slice(offset, end).arrayBuffer();
+    } catch (error) {
+      throw new PlatformError('io', `could not read the file (${error instanceof Error ? error.message : String(error)})`, entry.ref.name);
+    }
+    throwIfAborted(signal, entry.ref.name);
+    return new Uint8Array(buffer);
+  }
+
+  async saveFile(suggestedName: string, data: Uint8Array | string): Promise<boolean> {
+    const blob = new Blob([typeof data === 'string' ? data : new Uint8Array(data)]);
+    const picker = (globalThis as { showSaveFilePicker?: SavePicker }).showSaveFilePicker;
+    if (picker) {
+      let handle;
+      try {
+        handle = await picker({ suggestedName });
+      } catch (error) {
+        if (error instanceof Error && error.name === 'AbortError') return false;
+        throw new PlatformError('io', `could not open the save dialog (${error instanceof Error ? error.message : String(error)})`, suggestedName);
+      }
+      const writable = await handle.createWritable();
+      await writable.write(blob);
+      await writable.close();
+      return true;
+    }
+    const doc = this.#requireDocument('saving files');
+    const url = URL.createObjectURL(blob);
+    const link = doc.createElement('a');
+    link.href = url;
+    link.download = suggestedName;
+    link.rel = 'noopener';
+    doc.body.append(link);
+    link.click();
+    link.remove();
+    // The download has taken its copy once the click is handled; free the blob after.
+    setTimeout(() => URL.revokeObjectURL(url), 10_000);
+    return true;
+  }
+
+  async openDemoFile(name: string): Promise<FileRef> {
+    const segments = demoNameSegments(name);
+    const url = new URL(segments.map(encodeURIComponent).join('/'), this.#demoBase()).href;
+    const size = await fetchSize(this.#fetch, url, name);
+    const ref: FileRef = { id: newId(), name: segments[segments.length - 1], size };
+    this.#entries.set(ref.id, { kind: 'demo', url, ref });
+    return { ...ref };
+  }
+
+  #demoBase(): string {
+    if (this.#demoBaseUrl) return this.#demoBaseUrl.endsWith('/') ? this.#demoBaseUrl : `${this.#demoBaseUrl}/`;
+    const doc = this.#requireDocument('finding the demo folder');
+    return new URL('./demo/', doc.baseURI).href;
+  }
+
+  #requireDocument(what: string): Document {
+    if (!this.#document) throw new PlatformError('bad-request', `${what} needs a page (no document here)`);
+    return this.#document;
+  }
+}
+
+function newId(): string {
+  return crypto.randomUUID();
+}

@@ -1,0 +1,52 @@
+// The bridge inside the Electron window: every call goes through the preload's narrow
+// API to the main process, which owns the dialogs, the handle registry and the reads.
+
+import type { BridgeApi, BridgeResult } from './channels.ts';
+import { PlatformError, throwIfAborted } from './errors.ts';
+import { checkRangeArguments } from './range.ts';
+import type { FileRef, PickOptions, Platform } from './types.ts';
+
+export class ElectronPlatform implements Platform {
+  readonly kind = 'electron';
+  readonly #bridge: BridgeApi;
+
+  constructor(bridge: BridgeApi) {
+    this.#bridge = bridge;
+  }
+
+  async pickFiles(options: PickOptions): Promise<FileRef[]> {
+    return unwrap(await this.#bridge.pickFiles({ ...options, extensions: [...options.extensions] }));
+  }
+
+  async readRange(file: FileRef, offset: number, length: number, signal?: AbortSignal): Promise<Uint8Array> {
+    checkRangeArguments(offset, length, file?.name);
+    throwIfAborted(signal, file?.name);
+    // An IPC call cannot be withdrawn once sent; on abort the caller is released at once
+    // and the late answer is dropped.
+    const answer = this.#bridge.readRange({ id: file?.id, offset, length });
+    const bytes = unwrap(await raceAbort(answer, signal, file?.name));
+    return bytes instanceof Uint8Array ? bytes : new Uint8Array(bytes);
+  }
+
+  async saveFile(suggestedName: string, data: Uint8Array | string): Promise<boolean> {
+    return unwrap(await this.#bridge.saveFile({ suggestedName, data }));
+  }
+
+  async openDemoFile(name: string): Promise<FileRef> {
+    return unwrap(await this.#bridge.openDemoFile({ name }));
+  }
+}
+
+function unwrap<T>(result: BridgeResult<T>): T {
+  if (result.ok) return result.value;
+  throw new PlatformError(result.error.code, result.error.message, result.error.file);
+}
+
+function raceAbort<T>(promise: Promise<T>, signal: AbortSignal | undefined, name: string | undefined): Promise<T> {
+  if (!signal) return promise;
+  return new Promise<T>((resolve, reject) => {
+    const onAbort = () => reject(new PlatformError('aborted', 'the read was cancelled', name));
+    signal.addEventListener('abort', onAbort, { once: true });
+    promise.then(resolve, reject).finally(() => signal.removeEventListener('abort', onAbort));
+  });
+}
