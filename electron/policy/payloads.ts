@@ -1,0 +1,61 @@
+// IPC payloads are checked at the boundary: the renderer is not trusted to send the
+// shapes its types promise. Each parser returns the typed request or throws a
+// 'bad-request' PlatformError that says which field is wrong.
+
+import type { DemoFileRequest, ReadRangeRequest, SaveFileRequest } from '../../src/platform/channels.ts';
+import { PlatformError } from '../../src/platform/errors.ts';
+import type { PickOptions } from '../../src/platform/types.ts';
+
+const EXTENSION = /^[A-Za-z0-9]{1,16}$/;
+const MAX_SAVE_BYTES = 2 * 1024 * 1024 * 1024;
+
+function bad(message: string): never {
+  throw new PlatformError('bad-request', message);
+}
+
+function record(value: unknown, what: string): Record<string, unknown> {
+  if (typeof value !== 'object' || value === null || Array.isArray(value)) bad(`${what} must be an object`);
+  return value as Record<string, unknown>;
+}
+
+export function parsePickOptions(value: unknown): PickOptions {
+  const v = record(value, 'pick options');
+  if (typeof v.title !== 'string' || v.title.length > 200) bad('pick options: title must be a string of at most 200 characters');
+  if (!Array.isArray(v.extensions) || v.extensions.length > 32) bad('pick options: extensions must be a list of at most 32');
+  const extensions = v.extensions.map((ext) => {
+    if (typeof ext !== 'string' || !EXTENSION.test(ext.replace(/^\./, ''))) bad(`pick options: ${JSON.stringify(ext)} is not a file extension`);
+    return ext.replace(/^\./, '').toLowerCase();
+  });
+  if (v.multiple !== undefined && typeof v.multiple !== 'boolean') bad('pick options: multiple must be true or false');
+  return { title: v.title, extensions, multiple: v.multiple === true };
+}
+
+export function parseReadRange(value: unknown): ReadRangeRequest {
+  const v = record(value, 'read request');
+  if (typeof v.id !== 'string') bad('read request: id must be a string');
+  if (typeof v.offset !== 'number' || typeof v.length !== 'number') bad('read request: offset and length must be numbers');
+  return { id: v.id, offset: v.offset, length: v.length };
+}
+
+export function parseSaveFile(value: unknown): SaveFileRequest {
+  const v = record(value, 'save request');
+  const name = v.suggestedName;
+  if (typeof name !== 'string' || name.length === 0 || name.length > 255 || /[/\\\0]/.test(name) || name === '.' || name === '..') {
+    bad('save request: suggestedName must be a plain file name (no folders)');
+  }
+  const data = v.data;
+  if (typeof data === 'string') {
+    if (data.length > MAX_SAVE_BYTES / 4) bad('save request: the text is too long to save in one go');
+  } else if (data instanceof Uint8Array) {
+    if (data.byteLength > MAX_SAVE_BYTES) bad('save request: the data is too large to save in one go');
+  } else {
+    bad('save request: data must be text or bytes');
+  }
+  return { suggestedName: name, data };
+}
+
+export function parseDemoFile(value: unknown): DemoFileRequest {
+  const v = record(value, 'demo request');
+  if (typeof v.name !== 'string') bad('demo request: name must be a string');
+  return { name: v.name };
+}
