@@ -56,12 +56,15 @@ export function cohenKappa(m: ConfusionMatrix): CohenKappa {
   }
   const row = m.rowTotals.map((t) => t / n);
   const col = m.columnTotals.map((t) => t / n);
-  let po = 0;
-  let pe = 0;
+  // Sums of counts first, one division last: perfect agreement then gives exactly 1.
+  let agreeing = 0;
+  let marginProducts = 0;
   for (let i = 0; i < k; i++) {
-    po += m.counts[i][i] / n;
-    pe += row[i] * col[i];
+    agreeing += m.counts[i][i];
+    marginProducts += m.rowTotals[i] * m.columnTotals[i];
   }
+  const po = agreeing / n;
+  const pe = marginProducts / (n * n);
   const reason = kappaUndefinedReason(m, pe);
   if (reason) {
     return {
