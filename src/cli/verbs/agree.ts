@@ -276,7 +276,7 @@ export const agree: Verb = {
       return 0;
     }
     const how = byIou ? `matched by IoU (at least ${minIou})` : 'paired by id';
-    const header = `Agreement of ${basename(pathA)} (rows) and ${basename(pathB)} (columns), ${how}: ${pairs.length} patches`;
+    const header = `Agreement of ${basename(pathA)} (rows) and ${basename(pathB)} (columns), ${how}: ${pairs.length} ${pairs.length === 1 ? 'patch' : 'patches'}`;
     const lines = sheetText(sheet, header);
     if (delineation) lines.push(...delineationText(delineation.figures));
     out.stdout(lines.join('\n'));

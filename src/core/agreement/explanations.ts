@@ -8,6 +8,7 @@ import type { FleissKappa } from './fleissKappa.ts';
 
 const percent = (x: number) => `${(x * 100).toFixed(1)} %`;
 const fixed = (x: number) => x.toFixed(3);
+const patches = (n: number) => `${n} ${n === 1 ? 'patch' : 'patches'}`;
 
 function said<T>(figure: Figure<T>, sentence: (value: T) => string): string {
   return figure.value === null ? `Not defined: ${figure.reason}.` : sentence(figure.value);
@@ -25,13 +26,13 @@ export interface KappaExplanations {
 export function explainKappa(figures: CohenKappa, pabak: Figure, classCount: number): KappaExplanations {
   return {
     observed: said(figures.observed, (po) =>
-      `The two interpreters gave the same class to ${percent(po)} of the ${figures.n} patches.`),
+      `The two interpreters gave the same class to ${percent(po)} of the ${patches(figures.n)}.`),
     expected: said(figures.expected, (pe) =>
       `Two interpreters calling at random with these same class shares would agree on ${percent(pe)}.`),
     kappa: said(figures.kappa, (k) =>
       `Agreement beyond chance: ${fixed(k)} of the way from chance level (0) to perfect agreement (1); below 0 is worse than chance.`),
     standardError: said(figures.standardError, (se) =>
-      `The uncertainty of kappa from having only ${figures.n} patches: about ±${fixed(se)} for one standard error.`),
+      `The uncertainty of kappa from having only ${patches(figures.n)}: about ±${fixed(se)} for one standard error.`),
     ci95: said(figures.ci95, ([low, high]) =>
       `With 95 % confidence, kappa over many such patches lies between ${fixed(low)} and ${fixed(high)}.`),
     pabak: said(pabak, (p) =>
@@ -46,7 +47,7 @@ export function explainSpecific(name: string, specific: Figure): string {
 
 export function explainFleiss(figures: FleissKappa): string {
   return said(figures.kappa, (k) =>
-    `Agreement beyond chance among all ${figures.raters} interpreters on ${figures.subjects} patches: ${fixed(k)} (0 chance, 1 perfect).`);
+    `Agreement beyond chance among all ${figures.raters} interpreters on ${patches(figures.subjects)}: ${fixed(k)} (0 chance, 1 perfect).`);
 }
 
 export interface DelineationExplanations {
