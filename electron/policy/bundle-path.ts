@@ -44,7 +44,7 @@ export function appUrlSegments(rawUrl: string): PathVerdict {
   const rawPath = rawUrl.replace(/^[^:]+:\/\/[^/?#]*/, '') || '/';
   const raw = requestPathSegments(rawPath);
   if (!raw.ok) return raw;
-  return requestPathSegments(new URL(rawUrl).pathname);
+  return requestPathSegments(new URL(rawUrl).pathname || '/');
 }
 
 /** The absolute path of the segments under root; throws if it would leave root. */
