@@ -1,0 +1,125 @@
+import type { Platform } from '../platform/types.ts';
+import { createRenderPool } from '../imagery/renderPool.ts';
+import { Raster } from '../imagery/Raster.ts';
+import type { StretchLimits } from '../core/render/stretch.ts';
+
+export interface RosterEntry {
+  code: string;
+  scientificName: string;
+  commonName: string;
+  group: string;
+  colour: string;
+  key: string;
+}
+
+export interface BandInfo {
+  index: number;
+  name: string;
+  centre_nm: number;
+}
+
+/** One acquisition: its panchromatic and multispectral rasters and their default stretch. */
+export interface SceneView {
+  date: string;
+  pan: Raster;
+  ms: Raster;
+  bands: BandInfo[];
+  panLimits: StretchLimits;
+  /** Natural colour: the red, green and blue bands (0-based) and their stretch. */
+  naturalColour: { bands: [number, number, number]; limits: [StretchLimits, StretchLimits, StretchLimits] };
+}
+
+export interface FieldPolygons {
+  type: 'FeatureCollection';
+  features: { type: 'Feature'; id?: string | number; geometry: unknown; properties: Record<string, unknown> }[];
+}
+
+export interface OpenSite {
+  name: string;
+  epsg: number;
+  crsName: string;
+  extent: [number, number, number, number];
+  scenes: SceneView[];
+  roster: RosterEntry[];
+  fieldPolygons: FieldPolygons;
+  dispose(): void;
+}
+
+interface DemoManifest {
+  kind: string;
+  basin: string;
+  crs: { epsg: number; name: string };
+  extent: [number, number, number, number];
+  dates: { key: string; date: string }[];
+  bands: BandInfo[];
+  files: { name: string; role: string; date?: string }[];
+}
+
+export interface OpenOptions {
+  onProgress?: (progress: { label: string; fraction: number | null }) => void;
+  signal?: AbortSignal;
+}
+
+/** Opens the generated demo site: its manifest, both dates' rasters, the roster and the field polygons. */
+export async function openDemoSite(platform: Platform, options: OpenOptions = {}): Promise<OpenSite> {
+  const { onProgress = () => {}, signal } = options;
+  const readJson = async <T>(name: string): Promise<T> => {
+    const file = await platform.openDemoFile(name);
+    const bytes = await platform.readRange(file, 0, file.size, signal);
+    try {
+      return JSON.parse(new TextDecoder().decode(bytes)) as T;
+    } catch (error) {
+      throw new Error(`${name}: not valid JSON (${(error as Error).message})`, { cause: error });
+    }
+  };
+
+  onProgress({ label: 'Reading the demo manifest', fraction: 0 });
+  const manifest = await readJson<DemoManifest>('manifest.json');
+  if (manifest.kind !== 'fellfield demo manifest') throw new Error('manifest.json: not a Fellfield demo manifest');
+
+  const pool = createRenderPool();
+  try {
+    const scenes: SceneView[] = [];
+    const steps = manifest.dates.length * 2 + 2;
+    let step = 0;
+    for (const { date } of manifest.dates) {
+      const panName = manifest.files.find((f) => f.date === date && f.role.startsWith('panchromatic'))?.name;
+      const msName = manifest.files.find((f) => f.date === date && f.role.startsWith('multispectral'))?.name;
+      if (!panName || !msName) throw new Error(`manifest.json: the scene of ${date} lacks a panchromatic or multispectral file`);
+      onProgress({ label: `Opening ${panName}`, fraction: ++step / steps });
+      const pan = await Raster.open(platform, pool, await platform.openDemoFile(panName), signal);
+      onProgress({ label: `Opening ${msName}`, fraction: ++step / steps });
+      const ms = await Raster.open(platform, pool, await platform.openDemoFile(msName), signal);
+      scenes.push(await sceneView(date, pan, ms, manifest.bands, signal));
+    }
+    onProgress({ label: 'Reading the roster and field polygons', fraction: ++step / steps });
+    const roster = (await readJson<{ species: RosterEntry[] }>('roster.json')).species;
+    const fieldPolygons = await readJson<FieldPolygons>('field.geojson');
+    onProgress({ label: 'Ready', fraction: 1 });
+    return {
+      name: manifest.basin,
+      epsg: manifest.crs.epsg,
+      crsName: manifest.crs.name,
+      extent: manifest.extent,
+      scenes,
+      roster,
+      fieldPolygons,
+      dispose: () => pool.dispose(),
+    };
+  } catch (error) {
+    pool.dispose();
+    throw error;
+  }
+}
+
+async function sceneView(date: string, pan: Raster, ms: Raster, bands: BandInfo[], signal?: AbortSignal): Promise<SceneView> {
+  const find = (name: string) => {
+    const band = bands.find((b) => b.name.toLowerCase() === name);
+    if (!band) throw new Error(`${ms.file.name}: no ${name} band in the band table`);
+    return band.index - 1;
+  };
+  const rgb: [number, number, number] = [find('red'), find('green'), find('blue')];
+  const stretch = async (raster: Raster, band: number): Promise<StretchLimits> => ({ ...(await raster.bandLimits(band, 2, 98, signal)), gamma: 1 });
+  const [panLimits, r, g, b] = await Promise.all([stretch(pan, 0), ...rgb.map((band) => stretch(ms, band))]);
+  return { date, pan, ms, bands, panLimits, naturalColour: { bands: rgb, limits: [r, g, b] } };
+}

@@ -1,0 +1,1 @@
+export type ImageryMode = 'pan' | 'natural';
