@@ -6,6 +6,7 @@
 //
 // Options: --web, --port N (default 5217), --rebuild (build even when up to date),
 // --no-build, --no-download (do not try to fetch Electron), --dist DIR, --demo DIR.
+// FELLFIELD_ELECTRON_DIR points at another copy of the electron package.
 import { spawn, spawnSync } from 'node:child_process';
 import { existsSync, readFileSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
@@ -15,7 +16,7 @@ const repo = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const DOWNLOAD_TIMEOUT_MS = 120_000;
 
 /** The Electron executable if it is installed, else undefined. */
-export function electronBinary(electronPackageDir = path.join(repo, 'node_modules', 'electron')) {
+export function electronBinary(electronPackageDir = process.env.FELLFIELD_ELECTRON_DIR || path.join(repo, 'node_modules', 'electron')) {
   const pathFile = path.join(electronPackageDir, 'path.txt');
   if (!existsSync(pathFile)) return undefined;
   const binary = path.join(electronPackageDir, 'dist', readFileSync(pathFile, 'utf8').trim());
