@@ -3,6 +3,7 @@ import { cohenKappa } from '../../src/core/agreement/cohenKappa.ts';
 import { confusionMatrix } from '../../src/core/agreement/confusionMatrix.ts';
 import { fleissKappa, ratingTable } from '../../src/core/agreement/fleissKappa.ts';
 import { maxWeightMatching } from '../../src/core/agreement/hungarian.ts';
+import { sharedArea } from '../../src/core/agreement/sharedArea.ts';
 import { multiPolygonArea } from '../../src/core/geometry/measure.ts';
 import { intersectionArea } from '../../src/core/geometry/overlay.ts';
 import type { MultiPolygonRings } from '../../src/core/geometry/types.ts';
@@ -73,5 +74,8 @@ describe('areas and overlaps against Shapely', () => {
     expect(areaB).toBeCloseTo(expected.area_b, 6);
     expect(shared).toBeCloseTo(expected.intersection, 6);
     expect(shared / (areaA + areaB - shared)).toBeCloseTo(expected.iou, 9);
+    // The matcher's own shared-area routine, both ways round.
+    expect(sharedArea(ra, rb)).toBeCloseTo(expected.intersection, 6);
+    expect(sharedArea(rb, ra)).toBeCloseTo(expected.intersection, 6);
   });
 });

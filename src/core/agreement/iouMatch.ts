@@ -1,8 +1,8 @@
 import Flatbush from 'flatbush';
 import { extentOfRings, multiPolygonArea } from '../geometry/measure.ts';
-import { intersectionArea } from '../geometry/overlay.ts';
 import type { Extent, MultiPolygonRings } from '../geometry/types.ts';
 import { maxWeightMatching } from './hungarian.ts';
+import { sharedArea } from './sharedArea.ts';
 
 /** One outline of a delineation, in a projected CRS (metres). */
 export interface Outline {
@@ -97,7 +97,7 @@ export function candidatePairs(first: readonly Outline[], second: readonly Outli
       if (Math.min(areaA, areaB) / Math.max(areaA, areaB) < minIou) continue;
       const bound = Math.min(overlapOfExtents(firstExtents[i], secondExtents[j]), areaA, areaB);
       if (bound / (areaA + areaB - bound) < minIou) continue;
-      const shared = intersectionArea(first[i].rings, second[j].rings);
+      const shared = sharedArea(first[i].rings, second[j].rings);
       const iou = shared / (areaA + areaB - shared);
       if (iou >= minIou) edges.push({ first: i, second: j, iou, intersection: shared });
     }
