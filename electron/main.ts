@@ -22,7 +22,7 @@ const log = (message: string) => console.warn(`[fellfield] ${message}`);
 // Standard + secure: relative URLs resolve, and IndexedDB, storage persistence and
 // fetch work as on an https origin. Must happen before the app is ready.
 protocol.registerSchemesAsPrivileged([
-  { scheme: APP_SCHEME, privileges: { standard: true, secure: true, supportFetchAPI: true, codeCache: true } },
+  { scheme: APP_SCHEME, privileges: { standard: true, secure: true, supportFetchAPI: true, corsEnabled: true, stream: true, codeCache: true } },
 ]);
 
 app.enableSandbox();
