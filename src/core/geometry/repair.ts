@@ -1,0 +1,103 @@
+import InteriorPointArea from 'jsts/org/locationtech/jts/algorithm/InteriorPointArea.js';
+import Polygonizer from 'jsts/org/locationtech/jts/operation/polygonize/Polygonizer.js';
+import UnaryUnionOp from 'jsts/org/locationtech/jts/operation/union/UnaryUnionOp.js';
+import { factory, fromJsts, jstsLines, type JstsGeometry } from './jstsBridge.ts';
+import { multiPolygonArea, ringSignedArea } from './measure.ts';
+import { ringIsCollinear } from './segments.ts';
+import type { MultiPolygonRings, Position, Ring } from './types.ts';
+
+// Make a broken outline valid, and say what changed: never silently.
+// Clean-up first (drop bad numbers and repeated positions, close open rings, drop
+// rings with no area), then rebuild the area from the noded edges: every face of the
+// planar arrangement of the rings is kept when it lies inside its part by the even-odd
+// rule. A bowtie thus becomes its two triangles, not one of them (buffer(0) would lose
+// a lobe); a hole outside its shell becomes a part of its own, reported as such.
+
+export interface RepairResult {
+  /** The valid outline; empty when nothing with area is left. */
+  rings: MultiPolygonRings;
+  /** One plain sentence per change made. */
+  changes: string[];
+  /** |shoelace area| of the input rings as drawn (a bowtie's lobes cancel here). */
+  areaBefore: number;
+  areaAfter: number;
+}
+
+const samePoint = (a: Position, b: Position) => a[0] === b[0] && a[1] === b[1];
+
+function cleanRing(ring: Ring, name: string, changes: string[]): Ring | null {
+  let out = ring.filter(([x, y]) => Number.isFinite(x) && Number.isFinite(y));
+  if (out.length < ring.length) changes.push(`dropped ${ring.length - out.length} position(s) of ${name} that were not numbers`);
+  const before = out.length;
+  out = out.filter((p, i) => i === 0 || !samePoint(p, out[i - 1]));
+  if (out.length < before) changes.push(`removed ${before - out.length} repeated position(s) from ${name}`);
+  if (out.length > 0 && !samePoint(out[0], out[out.length - 1])) {
+    out = [...out, out[0]];
+    changes.push(`closed ${name}`);
+  }
+  if (new Set(out.map(([x, y]) => `${x},${y}`)).size < 3 || ringIsCollinear(out)) {
+    changes.push(`dropped ${name}: it encloses no area`);
+    return null;
+  }
+  return out;
+}
+
+/** Even-odd inside test of a point against a set of rings. */
+function insideEvenOdd(p: Position, rings: Ring[]): boolean {
+  let inside = false;
+  for (const ring of rings) {
+    for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
+      const [xi, yi] = ring[i];
+      const [xj, yj] = ring[j];
+      if ((yi > p[1]) !== (yj > p[1]) && p[0] < ((xj - xi) * (p[1] - yi)) / (yj - yi) + xi) inside = !inside;
+    }
+  }
+  return inside;
+}
+
+export function repairOutline(parts: MultiPolygonRings): RepairResult {
+  const changes: string[] = [];
+  const areaBefore = Math.abs(parts.reduce((sum, rings) => sum + rings.reduce((s, r) => {
+    const finite = r.filter(([x, y]) => Number.isFinite(x) && Number.isFinite(y));
+    return s + (finite.length > 2 ? ringSignedArea(finite) : 0);
+  }, 0), 0));
+
+  const cleaned: MultiPolygonRings = [];
+  parts.forEach((rings, p) => {
+    const kept: Ring[] = [];
+    rings.forEach((ring, r) => {
+      const name = `${r === 0 ? 'the outer ring' : `hole ${r}`}${parts.length > 1 ? ` of part ${p}` : ''}`;
+      const out = cleanRing(ring, name, changes);
+      if (out) kept.push(out);
+      else if (r === 0 && rings.length > 1) changes.push(`holes of ${name} are kept as rings of their own`);
+    });
+    if (kept.length) cleaned.push(kept);
+  });
+  if (cleaned.length === 0) return { rings: [], changes, areaBefore, areaAfter: 0 };
+
+  // Node all rings against each other, then polygonize the arrangement into faces.
+  const noded: JstsGeometry = UnaryUnionOp.union(jstsLines(cleaned));
+  const polygonizer = new Polygonizer();
+  polygonizer.add(noded);
+  const faces: JstsGeometry[] = polygonizer.getPolygons().toArray();
+  const keep = faces.filter((face) => {
+    const c = new InteriorPointArea(face).getInteriorPoint();
+    return cleaned.some((rings) => insideEvenOdd([c.x, c.y], rings));
+  });
+  const merged = keep.length ? UnaryUnionOp.union(factory.createMultiPolygon(keep)) : null;
+  const rings = merged ? fromJsts(merged) : [];
+  const areaAfter = multiPolygonArea(rings);
+
+  const dangles = polygonizer.getDangles().size() + polygonizer.getCutEdges().size();
+  if (dangles > 0) changes.push(`removed ${dangles} edge(s) that enclose nothing (spikes or cut lines)`);
+  const inputParts = cleaned.length;
+  if (rings.length !== inputParts) {
+    changes.push(`rebuilt the outline from its crossing edges: ${inputParts} part(s) became ${rings.length}`);
+  } else if (faces.length > cleaned.reduce((n, r) => n + r.length, 0)) {
+    changes.push('rebuilt the outline from its crossing edges');
+  }
+  if (Math.abs(areaAfter - areaBefore) > 1e-9 * Math.max(1, areaBefore)) {
+    changes.push(`area changed from ${areaBefore.toFixed(3)} to ${areaAfter.toFixed(3)} m²`);
+  }
+  return { rings, changes, areaBefore, areaAfter };
+}
