@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import GeometryFactory from 'jsts/org/locationtech/jts/geom/GeometryFactory.js';
 import WKTReader from 'jsts/org/locationtech/jts/io/WKTReader.js';
 import IsValidOp from 'jsts/org/locationtech/jts/operation/valid/IsValidOp.js';
 import { describe, expect, it } from 'vitest';
@@ -36,7 +37,7 @@ const fixture = JSON.parse(readFileSync(join(here, 'fixtures/checks/shapely-chec
 const topologicallyValid = (rings: MultiPolygonRings) =>
   validityIssues(rings).every((issue) => issue.reason === 'repeated-point');
 
-const reader = new WKTReader();
+const reader = new WKTReader(new GeometryFactory());
 
 describe('validity verdicts from the JTS test suite (TestValid.xml)', () => {
   const cases = fixture.validity.filter((c) => c.source === 'jts');
