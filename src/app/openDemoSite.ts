@@ -1,49 +1,8 @@
 import type { Platform } from '../platform/types.ts';
 import { createRenderPool } from '../imagery/renderPool.ts';
 import { Raster } from '../imagery/Raster.ts';
-import type { StretchLimits } from '../core/render/stretch.ts';
-
-export interface RosterEntry {
-  code: string;
-  scientificName: string;
-  commonName: string;
-  group: string;
-  colour: string;
-  key: string;
-}
-
-export interface BandInfo {
-  index: number;
-  name: string;
-  centre_nm: number;
-}
-
-/** One acquisition: its panchromatic and multispectral rasters and their default stretch. */
-export interface SceneView {
-  date: string;
-  pan: Raster;
-  ms: Raster;
-  bands: BandInfo[];
-  panLimits: StretchLimits;
-  /** Natural colour: the red, green and blue bands (0-based) and their stretch. */
-  naturalColour: { bands: [number, number, number]; limits: [StretchLimits, StretchLimits, StretchLimits] };
-}
-
-export interface FieldPolygons {
-  type: 'FeatureCollection';
-  features: { type: 'Feature'; id?: string | number; geometry: unknown; properties: Record<string, unknown> }[];
-}
-
-export interface OpenSite {
-  name: string;
-  epsg: number;
-  crsName: string;
-  extent: [number, number, number, number];
-  scenes: SceneView[];
-  roster: RosterEntry[];
-  fieldPolygons: FieldPolygons;
-  dispose(): void;
-}
+import { multispectralView, panchromaticView } from './sceneView.ts';
+import type { BandInfo, FieldPolygons, OpenSite, RosterEntry, SceneView } from './site.ts';
 
 interface DemoManifest {
   kind: string;
@@ -113,13 +72,6 @@ export async function openDemoSite(platform: Platform, options: OpenOptions = {}
 }
 
 async function sceneView(date: string, pan: Raster, ms: Raster, bands: BandInfo[], signal?: AbortSignal): Promise<SceneView> {
-  const find = (name: string) => {
-    const band = bands.find((b) => b.name.toLowerCase() === name);
-    if (!band) throw new Error(`${ms.file.name}: no ${name} band in the band table`);
-    return band.index - 1;
-  };
-  const rgb: [number, number, number] = [find('red'), find('green'), find('blue')];
-  const stretch = async (raster: Raster, band: number): Promise<StretchLimits> => ({ ...(await raster.bandLimits(band, 2, 98, signal)), gamma: 1 });
-  const [panLimits, r, g, b] = await Promise.all([stretch(pan, 0), ...rgb.map((band) => stretch(ms, band))]);
-  return { date, pan, ms, bands, panLimits, naturalColour: { bands: rgb, limits: [r, g, b] } };
+  const [panView, msView] = await Promise.all([panchromaticView(pan, signal), multispectralView(ms, bands, signal)]);
+  return { date, pan: panView, ms: msView };
 }

@@ -1,6 +1,14 @@
-import type { OpenSite } from '../../app/openDemoSite.ts';
+import type { OpenSite } from '../../app/site.ts';
 
 export type Screen = 'start' | 'desk';
+
+/** Opens a site, or resolves to null when the user backs out. */
+export type Opener = (onProgress: (p: Progress) => void, signal: AbortSignal) => Promise<OpenSite | null>;
+
+export interface SiteOpeners {
+  demo: Opener;
+  files: Opener;
+}
 
 export interface Progress {
   label: string;
@@ -15,21 +23,31 @@ export class Workspace {
   progress = $state<Progress | null>(null);
   error = $state<string | null>(null);
 
-  #opener: (onProgress: (p: Progress) => void, signal: AbortSignal) => Promise<OpenSite>;
+  #openers: SiteOpeners;
   #abort: AbortController | null = null;
 
-  constructor(opener: (onProgress: (p: Progress) => void, signal: AbortSignal) => Promise<OpenSite>) {
-    this.#opener = opener;
+  constructor(openers: SiteOpeners) {
+    this.#openers = openers;
   }
 
-  async openDemo(): Promise<void> {
+  openDemo(): Promise<void> {
+    return this.#open('Opening the demo site', (onProgress, signal) => this.#openers.demo(onProgress, signal));
+  }
+
+  /** Asks for one or two GeoTIFFs and opens them as a scene. */
+  openFiles(): Promise<void> {
+    return this.#open('Opening the picked files', (onProgress, signal) => this.#openers.files(onProgress, signal));
+  }
+
+  async #open(label: string, opener: Opener): Promise<void> {
     this.cancel();
     const abort = new AbortController();
     this.#abort = abort;
     this.error = null;
-    this.progress = { label: 'Opening the demo site', fraction: null };
+    this.progress = { label, fraction: null };
     try {
-      const site = await this.#opener((p) => (this.progress = p), abort.signal);
+      const site = await opener((p) => (this.progress = p), abort.signal);
+      if (site === null) return; // the user cancelled the picker
       if (abort.signal.aborted) {
         site.dispose();
         return;

@@ -1,0 +1,44 @@
+import type { Raster } from '../imagery/Raster.ts';
+import type { StretchLimits } from '../core/render/stretch.ts';
+import type { BandEntry as BandInfo } from '../core/bandTable.ts';
+
+// The site in hand, as the screens see it.
+
+export interface RosterEntry {
+  code: string;
+  scientificName: string;
+  commonName: string;
+  group: string;
+  colour: string;
+  key: string;
+}
+
+export type { BandEntry as BandInfo } from '../core/bandTable.ts';
+
+/** One acquisition: its panchromatic and multispectral rasters and their default stretch. */
+export interface SceneView {
+  date: string;
+  pan: { raster: Raster; limits: StretchLimits } | null;
+  ms: {
+    raster: Raster;
+    bands: BandInfo[];
+    /** Natural colour: the red, green and blue bands (0-based) and their stretch. */
+    naturalColour: { bands: [number, number, number]; limits: [StretchLimits, StretchLimits, StretchLimits] };
+  } | null;
+}
+
+export interface FieldPolygons {
+  type: 'FeatureCollection';
+  features: { type: 'Feature'; id?: string | number; geometry: unknown; properties: Record<string, unknown> }[];
+}
+
+export interface OpenSite {
+  name: string;
+  epsg: number;
+  crsName: string;
+  extent: [number, number, number, number];
+  scenes: SceneView[];
+  roster: RosterEntry[];
+  fieldPolygons: FieldPolygons;
+  dispose(): void;
+}
