@@ -1,0 +1,107 @@
+import { CodecError, inflateCapped } from './codecs/deflate.ts';
+import { lzwDecode } from './codecs/lzw.ts';
+import { packBitsDecode } from './codecs/packbits.ts';
+import { floatDecode, horizontalDecode } from './codecs/predictor.ts';
+import { TiffError } from './errors.ts';
+import { bytesPerSample, compressionName, hostLittleEndian, typedArrayOver, type Dtype, type SampleArray } from './tags.ts';
+
+/** What decodeTile needs to know of one tile or strip (see blockLayout in blocks.ts). */
+export interface TileLayout {
+  /** Pixels per row of the block: the tile width, or the image width for a strip. */
+  width: number;
+  /** Rows in the block: the tile height, or the rows of this strip. */
+  height: number;
+  /** Samples per pixel in the block: 1 for band-separate files, the band count for interleaved. */
+  samples: number;
+  dtype: Dtype;
+  /** TIFF compression code (1 none, 5 LZW, 8 or 32946 deflate, 32773 PackBits). */
+  compression: number;
+  /** TIFF predictor: 1 none, 2 horizontal, 3 floating point. */
+  predictor: number;
+  littleEndian: boolean;
+  /** For messages: the file, and which block ("tile 3 of level 0, band 2"). */
+  fileName?: string;
+  blockName?: string;
+}
+
+/**
+ * Decodes one compressed tile or strip into a typed array of exactly
+ * width * height * samples values, pixel-interleaved when samples > 1, in host byte order.
+ * Decompression is capped at the declared size: a block that would decode past it throws
+ * TiffError 'bad-tile' without allocating more. Pure and synchronous (usable in a worker).
+ * A block with a byte count of 0 is sparse (GDAL writes them for empty tiles): the caller
+ * fills it with no-data instead of decoding it.
+ */
+export function decodeTile(bytes: Uint8Array, layout: TileLayout): SampleArray {
+  const { width, height, samples, dtype, compression, predictor, littleEndian } = layout;
+  const fileName = layout.fileName ?? '';
+  const what = layout.blockName ?? 'a tile';
+  const size = bytesPerSample(dtype);
+  const count = width * height * samples;
+  const expected = count * size;
+  if (!Number.isSafeInteger(expected) || expected <= 0) {
+    throw new TiffError('bad-tile', fileName, `${what} has an impossible declared size (${width} x ${height} x ${samples})`);
+  }
+
+  let raw: Uint8Array;
+  try {
+    switch (compression) {
+      case 1:
+        if (bytes.length < expected) throw new CodecError(`holds ${bytes.length} bytes, not the declared ${expected}`);
+        raw = bytes.slice(0, expected);
+        break;
+      case 8:
+      case 32946:
+        raw = inflateCapped(bytes, expected);
+        break;
+      case 5:
+        raw = lzwDecode(bytes, expected);
+        break;
+      case 32773:
+        raw = packBitsDecode(bytes, expected);
+        break;
+      default:
+        throw new TiffError('unsupported', fileName, `${compressionName(compression)} compression is not supported`);
+    }
+  } catch (error) {
+    if (error instanceof CodecError) throw new TiffError('bad-tile', fileName, `${what} ${error.message}`);
+    throw error;
+  }
+
+  if (predictor === 3) {
+    if (dtype !== 'float32' && dtype !== 'float64') {
+      throw new TiffError('unsupported', fileName, `the floating-point predictor on ${dtype} samples is not supported`);
+    }
+    // Predictor 3 leaves the bytes in little-endian order whatever the file's byte order.
+    raw = floatDecode(raw, width, height, samples, size);
+    if (!hostLittleEndian) swapBytes(raw, size);
+  } else if (littleEndian !== hostLittleEndian) {
+    swapBytes(raw, size);
+  }
+
+  const values = typedArrayOver(dtype, raw.buffer as ArrayBuffer, count);
+  if (predictor === 2) {
+    if (values instanceof Float32Array || values instanceof Float64Array) {
+      // Horizontal differencing of float samples works on their bit patterns.
+      const asInt = values instanceof Float32Array ? new Uint32Array(raw.buffer, 0, count) : null;
+      if (!asInt) throw new TiffError('unsupported', fileName, 'horizontal prediction of float64 samples is not supported');
+      horizontalDecode(asInt, width, height, samples);
+    } else {
+      horizontalDecode(values, width, height, samples);
+    }
+  } else if (predictor !== 1 && predictor !== 3) {
+    throw new TiffError('unsupported', fileName, `predictor ${predictor} is not supported`);
+  }
+  return values;
+}
+
+function swapBytes(bytes: Uint8Array, size: number): void {
+  if (size === 1) return;
+  for (let i = 0; i + size <= bytes.length; i += size) {
+    for (let a = i, b = i + size - 1; a < b; a++, b--) {
+      const t = bytes[a];
+      bytes[a] = bytes[b];
+      bytes[b] = t;
+    }
+  }
+}
