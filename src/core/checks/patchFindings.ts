@@ -1,0 +1,146 @@
+import OverlayOp from 'jsts/org/locationtech/jts/operation/overlay/OverlayOp.js';
+import { fromJsts, jstsPolygon } from '../geometry/jstsBridge.ts';
+import { multiPolygonArea } from '../geometry/measure.ts';
+import { countPurePixels } from '../geometry/purePixels.ts';
+import { gridExtent } from '../geometry/rasterGrid.ts';
+import type { Extent, MultiPolygonRings } from '../geometry/types.ts';
+import type { Finding } from './findings.ts';
+import { jstsOf, type PreparedPatch } from './preparedPatch.ts';
+import type { CheckSettings, SceneGrids } from './settings.ts';
+
+// The checks that look at one patch alone: invalid, mixed-tag, undersized, off-image.
+
+const round = (value: number, digits = 3) => Math.round(value * 10 ** digits) / 10 ** digits;
+const percent = (share: number) => `${Math.round(share * 1000) / 10} %`;
+
+export function patchFindings(patch: PreparedPatch, settings: CheckSettings, scene: SceneGrids): Finding[] {
+  const out: Finding[] = [];
+  const invalid = invalidFinding(patch);
+  if (invalid) out.push(invalid);
+  const mixed = mixedTagFinding(patch, settings);
+  if (mixed) out.push(mixed);
+  if (patch.shape) {
+    const small = undersizedFinding(patch, settings, scene);
+    if (small) out.push(small);
+    const off = offImageFinding(patch, settings, scene);
+    if (off) out.push(off);
+  }
+  return out;
+}
+
+function invalidFinding(patch: PreparedPatch): Finding | null {
+  const { issues, input } = patch;
+  if (issues.length === 0) return null;
+  const reasons = [...new Set(issues.map((issue) => issue.reason))];
+  const located = issues.find((issue) => issue.point && Number.isFinite(issue.point[0]) && Number.isFinite(issue.point[1]));
+  const onlyRepeats = reasons.every((r) => r === 'repeated-point');
+  const tooBig = reasons.includes('vertex-limit');
+  const repairText = patch.repair
+    ? (patch.repair.changes.length ? patch.repair.changes.join('; ') : 'no change needed')
+    : onlyRepeats ? 'remove the repeated positions' : '';
+  return {
+    kind: 'invalid',
+    patches: [input.id],
+    severity: onlyRepeats ? 'warning' : 'error',
+    message: `patch ${input.id} is not a valid polygon: ${issues.map((issue) => issue.message).join('; ')}`,
+    area_m2: null,
+    geometry: located ? { type: 'Point', coordinates: located.point! } : null,
+    reasons,
+    fix: tooBig
+      ? { action: 'simplify', target: input.id, text: `redraw patch ${input.id} with fewer vertices` }
+      : { action: 'repair', target: input.id, text: `make patch ${input.id} valid: ${repairText}` },
+    details: patch.repair
+      ? { repairedAreaM2: round(patch.repair.areaAfter), repairedParts: patch.repair.rings.length, repairChanges: patch.repair.changes }
+      : {},
+  };
+}
+
+function mixedTagFinding(patch: PreparedPatch, settings: CheckSettings): Finding | null {
+  const { input } = patch;
+  const calls = [input.species, ...(input.tags ?? []).map((t) => t.species)].map((s) => s.trim());
+  const mixedCodes = new Set(settings.mixedCodes.map((c) => c.toLowerCase()));
+  const taggedMixed = calls.some((c) => mixedCodes.has(c.toLowerCase()));
+  const distinct = [...new Set(calls)].sort();
+  if (!taggedMixed && distinct.length < 2) return null;
+  const message = taggedMixed
+    ? `patch ${input.id} is tagged as mixed: it cannot train a single species`
+    : `the tags of patch ${input.id} disagree: ${distinct.join(', ')}`;
+  return {
+    kind: 'mixed-tag',
+    patches: [input.id],
+    severity: 'warning',
+    message,
+    area_m2: patch.shape ? round(patch.area) : null,
+    geometry: null,
+    fix: { action: 'retag', target: input.id, text: `settle one species for patch ${input.id}, or split it into single-species patches` },
+    details: { species: distinct },
+  };
+}
+
+function undersizedFinding(patch: PreparedPatch, settings: CheckSettings, scene: SceneGrids): Finding | null {
+  const { input, area } = patch;
+  const msArea = settings.msPixelSize * settings.msPixelSize;
+  const minArea = settings.minAreaInMsPixels * msArea;
+  let why: string | null = null;
+  const details: Record<string, number> = { areaM2: round(area), minAreaM2: round(minArea) };
+  if (area < minArea) {
+    why = `covers ${round(area, 2)} m², under ${settings.minAreaInMsPixels} multispectral pixels (${round(minArea, 2)} m²)`;
+  } else if (scene.ms && settings.minPurePixels > 0) {
+    const pure = countPurePixels(patch.shape!, scene.ms, settings.minPurePixels);
+    details.purePixels = pure;
+    details.minPurePixels = settings.minPurePixels;
+    if (pure < settings.minPurePixels) {
+      why = `holds ${pure} pure multispectral pixel(s), fewer than ${settings.minPurePixels}`;
+    }
+  }
+  if (!why) return null;
+  return {
+    kind: 'undersized',
+    patches: [input.id],
+    severity: 'warning',
+    message: `patch ${input.id} ${why}`,
+    area_m2: round(area),
+    geometry: null,
+    fix: { action: 'enlarge', target: input.id, text: `redraw patch ${input.id} to cover whole multispectral pixels, or leave it out of training` },
+    details,
+  };
+}
+
+/** The rectangle every given raster covers (their intersection), or null with no scene. */
+export function sceneExtent(scene: SceneGrids): Extent | null {
+  const extents = [scene.pan, scene.ms].filter((g) => g !== undefined).map((g) => gridExtent(g));
+  if (extents.length === 0) return null;
+  return extents.reduce((a, b) => [Math.max(a[0], b[0]), Math.max(a[1], b[1]), Math.min(a[2], b[2]), Math.min(a[3], b[3])]);
+}
+
+function offImageFinding(patch: PreparedPatch, settings: CheckSettings, scene: SceneGrids): Finding | null {
+  const bounds = sceneExtent(scene);
+  const e = patch.extent;
+  if (!bounds || !e) return null;
+  const { input, area } = patch;
+  if (e[0] >= bounds[0] && e[1] >= bounds[1] && e[2] <= bounds[2] && e[3] <= bounds[3]) return null;
+  const disjoint = e[0] >= bounds[2] || e[2] <= bounds[0] || e[1] >= bounds[3] || e[3] <= bounds[1];
+  let outside: MultiPolygonRings = patch.shape!;
+  if (!disjoint) {
+    const [x0, y0, x1, y1] = bounds;
+    const rectangle = jstsPolygon([[[x0, y0], [x1, y0], [x1, y1], [x0, y1], [x0, y0]]]);
+    outside = fromJsts(OverlayOp.difference(jstsOf(patch), rectangle));
+  }
+  const outsideArea = disjoint ? area : multiPolygonArea(outside);
+  if (!disjoint && outsideArea <= settings.sliverAreaM2) return null;
+  const share = area > 0 ? outsideArea / area : 1;
+  return {
+    kind: 'off-image',
+    patches: [input.id],
+    severity: disjoint || share > 0.5 ? 'error' : 'warning',
+    message: disjoint
+      ? `patch ${input.id} lies outside the scene`
+      : `patch ${input.id} crosses the edge of the scene: ${round(outsideArea, 2)} m² (${percent(share)}) lies off the image`,
+    area_m2: round(outsideArea),
+    shares: [round(share, 4)],
+    geometry: { type: 'MultiPolygon', coordinates: outside },
+    fix: disjoint
+      ? { action: 'move-inside', target: input.id, text: `check the CRS of patch ${input.id} or delete it: the scene does not show it` }
+      : { action: 'move-inside', target: input.id, text: `clip patch ${input.id} to the scene edge` },
+  };
+}
