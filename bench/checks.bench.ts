@@ -1,0 +1,134 @@
+// Benchmarks of the patch checks over seeded sites of crown-sized patches.
+import { CheckSession } from '../src/core/checks/CheckSession.ts';
+import { pairFindings } from '../src/core/checks/pairFindings.ts';
+import { patchFindings } from '../src/core/checks/patchFindings.ts';
+import { preparePatch, type PatchInput } from '../src/core/checks/preparedPatch.ts';
+import { resolveSettings } from '../src/core/checks/settings.ts';
+import type { Ring } from '../src/core/geometry/types.ts';
+import { result, seeded, time, type BenchResult, type Benchmark, type BenchSize, type Timing } from './harness.ts';
+
+const SPECIES = ['pice', 'lari', 'pinu', 'juni', 'alnu', 'salx'];
+const CELL = 12; // m between lattice points; crowns up to 10 m across fit a cell
+
+/** A crown outline: a noisy polygon of `k` vertices, counter-clockwise, closed. */
+function crown(random: () => number, cx: number, cy: number, r: number, k: number): Ring {
+  const ring: Ring = [];
+  for (let i = 0; i < k; i++) {
+    const a = (2 * Math.PI * i) / k;
+    const rr = r * (0.85 + 0.3 * random());
+    ring.push([cx + rr * Math.cos(a), cy + rr * Math.sin(a)]);
+  }
+  ring.push([ring[0][0], ring[0][1]]);
+  return ring;
+}
+
+/**
+ * A seeded site: one crown (1-10 m across) per lattice cell; 5 % of cells get a second
+ * crown overlapping the first, 10 % are split in two patches that touch along a chord,
+ * 2 % carry disagreeing tags and 0.5 % are drawn as bowties.
+ */
+export function seededSite(n: number, seed = 1): PatchInput[] {
+  const random = seeded(seed);
+  const side = Math.ceil(Math.sqrt(n));
+  const patches: PatchInput[] = [];
+  const species = () => SPECIES[Math.floor(random() * SPECIES.length)];
+  for (let cell = 0; patches.length < n; cell++) {
+    const r = 0.5 + 4.5 * random();
+    const jitter = CELL / 2 - r;
+    const cx = 600000 + (cell % side) * CELL + (random() - 0.5) * jitter;
+    const cy = 5100000 + Math.floor(cell / side) * CELL + (random() - 0.5) * jitter;
+    const k = 12 + Math.floor(random() * 13);
+    const ring = crown(random, cx, cy, r, k);
+    const roll = random();
+    if (roll < 0.1 && patches.length + 1 < n) {
+      // Split along the chord from vertex 0 to vertex k/2: two patches sharing an edge.
+      const half = Math.floor(k / 2);
+      const left = [...ring.slice(0, half + 1), ring[0]];
+      const right = [...ring.slice(half, k), ring[0], ring[half]];
+      patches.push({ id: patches.length, species: species(), rings: [[left]] });
+      patches.push({ id: patches.length, species: species(), rings: [[right]] });
+      continue;
+    }
+    const tags = roll < 0.12 ? [{ species: species() }, { species: species() }] : undefined;
+    if (roll > 0.995) {
+      ring.splice(0, 3, ring[2], ring[1], ring[0]); // crossing edges near vertex 0
+      ring[ring.length - 1] = [ring[0][0], ring[0][1]];
+    }
+    patches.push({ id: patches.length, species: species(), tags, rings: [[ring]] });
+    if (roll > 0.1 && roll < 0.15 && patches.length < n) {
+      const shift = r * (0.4 + 0.8 * random());
+      patches.push({ id: patches.length, species: species(), rings: [[crown(random, cx + shift, cy, r * 0.8, k)]] });
+    }
+  }
+  return patches;
+}
+
+/** The same checks with every pair tried (box test first), no spatial index. */
+function allPairsCheck(patches: PatchInput[]): number {
+  const settings = resolveSettings();
+  const prepared = patches.map((p) => preparePatch(p, settings));
+  let found = 0;
+  for (const p of prepared) found += patchFindings(p, settings, {}).length;
+  for (let i = 0; i < prepared.length; i++) {
+    for (let j = i + 1; j < prepared.length; j++) found += pairFindings(prepared[i], prepared[j], settings).length;
+  }
+  return found;
+}
+
+function fullCheck(patches: PatchInput[]): number {
+  const session = new CheckSession();
+  session.load(patches);
+  return session.findings().length;
+}
+
+const full: Benchmark = {
+  name: 'checks.full',
+  async run(size: BenchSize) {
+    const sizes = size === 'large' ? [1000, 10000, 100000] : [1000, 10000];
+    const lines: BenchResult[] = [];
+    let at1k: Timing | null = null;
+    for (const n of sizes) {
+      const site = seededSite(n);
+      const found = fullCheck(site);
+      const ours = await time(() => fullCheck(site), { runs: n >= 100000 ? 5 : 7 });
+      if (!at1k) at1k = ours;
+      const scale = (n * Math.log2(n)) / (sizes[0] * Math.log2(sizes[0]));
+      const extra = { findings: found, growth_vs_n_log_n: Math.round((ours.median / (at1k.median * scale)) * 100) / 100 };
+      if (n <= 10000) {
+        lines.push(result('checks.full', n, ours, 'all-pairs', await time(() => allPairsCheck(site), { runs: 5, warmup: 0 }), extra));
+      } else {
+        // All-pairs is quadratic (minutes at 100k); here the reference is the 1k run
+        // scaled by n log n, so a ratio near 1 means the growth stays n log n.
+        const floor = { ...at1k, median: at1k.median * scale, p95: at1k.p95 * scale };
+        lines.push(result('checks.full', n, ours, 'n log n from 1k', floor, extra));
+      }
+    }
+    return lines;
+  },
+};
+
+const incremental: Benchmark = {
+  name: 'checks.incremental',
+  async run() {
+    const n = 10000;
+    const site = seededSite(n);
+    const session = new CheckSession();
+    session.load(site);
+    const random = seeded(7);
+    // Each run edits a different patch: moves it by up to half a metre.
+    const edit = () => {
+      const original = site[Math.floor(random() * n)];
+      const dx = random() - 0.5;
+      const moved: PatchInput = { ...original, rings: original.rings.map((part) => part.map((ring) => ring.map(([x, y]) => [x + dx, y] as [number, number]))) };
+      session.upsert(moved);
+      session.upsert(original);
+    };
+    const ours = await time(edit, { runs: 41, warmup: 5 });
+    const base = await time(() => fullCheck(site), { runs: 5 });
+    // Each timed run makes two edits (there and back); report one edit's time.
+    const half = { ...ours, median: ours.median / 2, p95: ours.p95 / 2 };
+    return [result('checks.incremental', n, half, 'full re-check', base, { edit: 'move one patch, then re-check' })];
+  },
+};
+
+export const benchmarks: Benchmark[] = [full, incremental];
