@@ -26,6 +26,7 @@ export async function openImageryFiles(platform: Platform, files: FileRef[], opt
       onProgress({ label: `Opening ${file.name}`, fraction: i / files.length });
       try {
         const raster = await Raster.open(platform, pool, file, signal);
+        await raster.bandLimits(0, 2, 98, signal); // decodes a small level: a broken file shows itself now
         if (!raster.summary.georeferenced || raster.summary.epsg === null) {
           problems.push(`${file.name}: has no usable georeferencing (CRS and geotransform), so it cannot be placed on the map`);
         } else rasters.push(raster);

@@ -17,6 +17,7 @@ export class Raster {
   readonly summary: TiffSummary;
   #platform: Platform;
   #pool: RenderPool;
+  #limits = new Map<string, Promise<{ min: number; max: number }>>();
 
   private constructor(platform: Platform, pool: RenderPool, file: FileRef, summary: TiffSummary) {
     this.#platform = platform;
@@ -81,7 +82,18 @@ export class Raster {
    * Percentile limits of one band, from the smallest level that still has enough
    * pixels (an overview, never the full image of a large scene).
    */
-  async bandLimits(band: number, low = 2, high = 98, signal?: AbortSignal): Promise<{ min: number; max: number }> {
+  bandLimits(band: number, low = 2, high = 98, signal?: AbortSignal): Promise<{ min: number; max: number }> {
+    const key = `${band}:${low}:${high}`;
+    let limits = this.#limits.get(key);
+    if (!limits) {
+      limits = this.#computeLimits(band, low, high, signal);
+      limits.catch(() => this.#limits.delete(key));
+      this.#limits.set(key, limits);
+    }
+    return limits;
+  }
+
+  async #computeLimits(band: number, low: number, high: number, signal?: AbortSignal): Promise<{ min: number; max: number }> {
     const level = this.#statsLevel();
     const info = this.summary.levels[level];
     const tiles: (EncodedTile & { x: number; y: number })[] = [];
