@@ -46,7 +46,7 @@ export function shadowLength(crown: Crown, date: SceneDate): number {
 
 /** 1 where a crown's cast shadow falls, else 0. Shadows are cast away from the sun as a
  * tapered band from the crown to the projected top (narrow for conifers, broad for
- * shrubs); the renderer darkens only ground pixels with them, never crowns. */
+ * shrubs), never reaching the sunward side; the renderer darkens only ground pixels with them, never crowns. */
 export function shadowMask(grid: SceneGrid, crowns: readonly Crown[], date: SceneDate): Uint8Array {
   const mask = new Uint8Array(grid.size * grid.size);
   const [sx, sy] = sunDirection(date);
@@ -54,7 +54,8 @@ export function shadowMask(grid: SceneGrid, crowns: readonly Crown[], date: Scen
   const dy = -sy;
   for (const crown of crowns) {
     const length = shadowLength(crown, date);
-    const base = crown.radius * 1.05;
+    // Starting from the crown's smallest radius keeps the sunward ground out of shadow.
+    const base = crown.radius * (1 - crown.wobble.reduce((sum, w) => sum + w.amplitude, 0));
     const tip = crown.radius * (speciesByCode(crown.species).group === 'conifer' ? 0.15 : 0.7);
     const ex = crown.cx + dx * length;
     const ey = crown.cy + dy * length;
