@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.ts';
+import inputs from '../reference/fixtures/agreement/inputs.json' with { type: 'json' };
 
 const dir = mkdtempSync(join(tmpdir(), 'fellfield-agree-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -202,6 +203,47 @@ describe('fellfield agree on bad input', () => {
     expect(stderr).toMatch(message);
     expect(stderr.trim().split('\n')).toHaveLength(1);
     expect(stderr).not.toMatch(/\n\s+at /);
+  });
+});
+
+describe('fellfield agree with three or more files', () => {
+  // Fleiss (1971): 30 patients, 6 psychiatrists each, kappa .430; raw calls as in
+  // statsmodels' tests, R irr's kappam.fleiss gives 0.4302445 (see SOURCES.md).
+  const diagnoses = inputs.fleiss.find((c) => c.name === 'Fleiss (1971) diagnoses')!.calls;
+  const paths = [0, 1, 2, 3, 4, 5].map((r) =>
+    write(`rater${r}.geojson`, diagnoses.map((row, i) => ({ id: `patient-${i + 1}`, species: `class-${row[r]}` }))));
+
+  it("reports Fleiss' kappa of the published example and Cohen's kappa per pair", async () => {
+    const { code, stdout, stderr } = await run(...paths, '--json');
+    expect(stderr).toBe('');
+    expect(code).toBe(0);
+    const doc = JSON.parse(stdout);
+    expect(doc.n).toBe(30);
+    expect(doc.raters).toBe(6);
+    expect(doc.fleiss_kappa).toBeCloseTo(0.4302445, 7);
+    expect(doc.pairwise).toHaveLength(15);
+    const pair = JSON.parse((await run(paths[0], paths[1], '--json')).stdout);
+    expect(doc.pairwise[0].kappa).toBeCloseTo(pair.kappa, 12);
+  });
+
+  it('prints them as text', async () => {
+    const { stdout } = await run(...paths.slice(0, 3));
+    expect(stdout).toMatch(/Agreement of 3 label files, paired by id: 30 patches/);
+    expect(stdout).toMatch(/Fleiss' kappa\s+-?\d\.\d{3}/);
+    expect(stdout).toMatch(/rater0\.geojson × rater2\.geojson\s+kappa/);
+  });
+
+  it('refuses mismatched ids in any file, naming it', async () => {
+    const short = write('short.geojson', diagnoses.slice(1).map((row, i) => ({ id: `patient-${i + 2}`, species: `class-${row[0]}` })));
+    const { code, stderr } = await run(paths[0], paths[1], short);
+    expect(code).toBe(2);
+    expect(stderr).toMatch(/rater0\.geojson and .*short\.geojson have mismatched ids: 1 only in .*rater0\.geojson \(e\.g\. "patient-1"\), 0 only/);
+  });
+
+  it('refuses IoU matching of more than two files', async () => {
+    const { code, stderr } = await run(...paths.slice(0, 3), '--match', 'iou');
+    expect(code).toBe(2);
+    expect(stderr).toMatch(/compares two delineations, got 3 files/);
   });
 });
 

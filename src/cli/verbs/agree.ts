@@ -2,20 +2,27 @@ import { readFileSync } from 'node:fs';
 import { basename } from 'node:path';
 import type { GroupAgreement } from '../../core/agreement/breakdown.ts';
 import { delineationFigures, type DelineationFigures } from '../../core/agreement/delineation.ts';
-import { explainDelineation } from '../../core/agreement/explanations.ts';
+import { cohenKappa } from '../../core/agreement/cohenKappa.ts';
+import { confusionMatrix, seenClasses } from '../../core/agreement/confusionMatrix.ts';
+import { explainDelineation, explainFleiss } from '../../core/agreement/explanations.ts';
 import type { Figure } from '../../core/agreement/figure.ts';
+import { fleissKappa, ratingTable } from '../../core/agreement/fleissKappa.ts';
 import { matchByIou } from '../../core/agreement/iouMatch.ts';
 import type { PairedCall } from '../../core/agreement/pairedCall.ts';
-import { collidingIds, pairById, type CallOnPatch } from '../../core/agreement/pairById.ts';
+import { alignById, collidingIds, pairById, type CallOnPatch, type IdMismatch } from '../../core/agreement/pairById.ts';
+import { pabak } from '../../core/agreement/pabak.ts';
 import { agreementSheet, type AgreementSheet } from '../../core/agreement/sheet.ts';
 import { LabelFileError, readLabelFile, type LabelFile, type LabelledPatch } from '../../core/geojson/labelFile.ts';
 import { InputError } from '../errors.ts';
 import { parseVerbArgs, type Verb } from '../verb.ts';
 
 const usage = `fellfield agree A.geojson B.geojson [--by id | --match iou [--min-iou 0.5]] [--json]
+fellfield agree A.geojson B.geojson C.geojson ... [--json]
 
 Measures how well two interpreters agree on the species of the same patches.
-A's calls are the rows of the confusion matrix, B's the columns.
+A's calls are the rows of the confusion matrix, B's the columns. With three or
+more files (paired by id), Fleiss' kappa over all of them and Cohen's kappa for
+every pair of files.
 
   --by id          pair features by their GeoJSON id (default); every id must be in both files
   --match iou      pair outlines one-to-one by IoU (two independent delineations)
@@ -52,23 +59,90 @@ function callOf(patch: LabelledPatch): CallOnPatch {
 const sample = (ids: string[]) =>
   ids.length === 0 ? '' : ` (e.g. ${ids.slice(0, 3).map((id) => JSON.stringify(id)).join(', ')}${ids.length > 3 ? ', …' : ''})`;
 
+/** Refuses a file with no features or with ids that pairing could not tell apart. */
+function checkIds(path: string, file: LabelFile) {
+  const twice = collidingIds(file.patches.map(callOf));
+  if (twice.length) throw new InputError(`${path}: ids ${twice.map((id) => JSON.stringify(id)).join(', ')} occur both as numbers and as text`);
+  if (file.patches.length === 0) throw new InputError(`${path}: the FeatureCollection has no features`);
+}
+
+function mismatchError(pathA: string, pathB: string, m: IdMismatch): InputError {
+  if (m.shared === 0) {
+    return new InputError(`${pathA} and ${pathB} share no feature id: nothing to compare (${m.onlyFirst.length} ids in ${pathA}, ${m.onlySecond.length} in ${pathB})`);
+  }
+  return new InputError(
+    `${pathA} and ${pathB} have mismatched ids: ${m.onlyFirst.length} only in ${pathA}${sample(m.onlyFirst)}, ` +
+      `${m.onlySecond.length} only in ${pathB}${sample(m.onlySecond)}; ${m.shared} shared`,
+  );
+}
+
 /** Pairs the two files' features by id, refusing any mismatch with counts on each side. */
 function pairFilesById(pathA: string, a: LabelFile, pathB: string, b: LabelFile): PairedCall[] {
-  for (const [path, file] of [[pathA, a], [pathB, b]] as const) {
-    const twice = collidingIds(file.patches.map(callOf));
-    if (twice.length) throw new InputError(`${path}: ids ${twice.map((id) => JSON.stringify(id)).join(', ')} occur both as numbers and as text`);
-    if (file.patches.length === 0) throw new InputError(`${path}: the FeatureCollection has no features`);
-  }
+  checkIds(pathA, a);
+  checkIds(pathB, b);
   const result = pairById(a.patches.map(callOf), b.patches.map(callOf));
   if (result.ok) return result.pairs;
-  const { onlyFirst, onlySecond, shared } = result.mismatch;
-  if (shared === 0) {
-    throw new InputError(`${pathA} and ${pathB} share no feature id: nothing to compare (${onlyFirst.length} ids in ${pathA}, ${onlySecond.length} in ${pathB})`);
+  throw mismatchError(pathA, pathB, result.mismatch);
+}
+
+/** Three or more files: Fleiss' kappa over all, Cohen's kappa for each pair of files. */
+function severalFiles(paths: string[], asJson: boolean): string {
+  const files = paths.map((path) => readLabels(path));
+  files.forEach((file, r) => checkIds(paths[r], file));
+  const result = alignById(files.map((f) => f.patches.map(callOf)));
+  if (!result.ok) {
+    const r = result.mismatches.findIndex((m) => m.onlyFirst.length || m.onlySecond.length || m.shared === 0);
+    throw mismatchError(paths[0], paths[r + 1], result.mismatches[r]);
   }
-  throw new InputError(
-    `${pathA} and ${pathB} have mismatched ids: ${onlyFirst.length} only in ${pathA}${sample(onlyFirst)}, ` +
-      `${onlySecond.length} only in ${pathB}${sample(onlySecond)}; ${shared} shared`,
-  );
+  const { calls } = result.aligned;
+  const classes = seenClasses(calls.flat(), []);
+  const { table } = ratingTable(calls, classes);
+  const fleiss = fleissKappa(classes, table);
+  const pairwise = [];
+  for (let r = 0; r < paths.length; r++) {
+    for (let s = r + 1; s < paths.length; s++) {
+      const m = confusionMatrix(calls.map((c) => c[r]), calls.map((c) => c[s]), classes);
+      pairwise.push({ first: paths[r], second: paths[s], figures: cohenKappa(m), pabak: pabak(m) });
+    }
+  }
+  if (asJson) {
+    return JSON.stringify({
+      files: paths,
+      paired_by: 'id',
+      n: fleiss.subjects,
+      raters: fleiss.raters,
+      classes,
+      fleiss_kappa: fleiss.kappa.value,
+      fleiss_observed: fleiss.observed.value,
+      fleiss_expected: fleiss.expected.value,
+      fleiss_se_null: fleiss.standardErrorNull.value,
+      ...(fleiss.kappa.reason ? { reason: fleiss.kappa.reason } : {}),
+      category_shares: fleiss.categoryShares,
+      explanation: explainFleiss(fleiss),
+      pairwise: pairwise.map((p) => ({
+        first: p.first,
+        second: p.second,
+        observed: p.figures.observed.value,
+        kappa: p.figures.kappa.value,
+        kappa_se: p.figures.standardError.value,
+        kappa_ci95: p.figures.ci95.value,
+        pabak: p.pabak.value,
+        ...(p.figures.kappa.reason ? { reason: p.figures.kappa.reason } : {}),
+      })),
+    }, null, 2);
+  }
+  const width = Math.max(...pairwise.map((p) => `${basename(p.first)} × ${basename(p.second)}`.length));
+  return [
+    `Agreement of ${paths.length} label files, paired by id: ${fleiss.subjects} ${fleiss.subjects === 1 ? 'patch' : 'patches'}`,
+    '',
+    `Fleiss' kappa       ${num(fleiss.kappa).padStart(16)}  ${explainFleiss(fleiss)}`,
+    `Observed agreement  ${num(fleiss.observed).padStart(16)}  Share of agreeing pairs of interpreters, averaged over the patches.`,
+    `Chance agreement    ${num(fleiss.expected).padStart(16)}  Agreement expected from the pooled class shares alone.`,
+    '',
+    "Cohen's kappa for each pair of files",
+    ...pairwise.map((p) =>
+      `  ${`${basename(p.first)} × ${basename(p.second)}`.padEnd(width)}  kappa ${num(p.figures.kappa)}  observed ${num(p.figures.observed)}  PABAK ${num(p.pabak)}`),
+  ].join('\n');
 }
 
 /** Pairs the outlines of two delineations by IoU; the pairs carry both files' species. */
@@ -247,7 +321,7 @@ export const agree: Verb = {
       'min-iou': { type: 'string' },
       json: { type: 'boolean', default: false },
     });
-    if (positionals.length !== 2) {
+    if (positionals.length < 2) {
       throw new InputError(`agree: expected two label files (A.geojson B.geojson), got ${positionals.length}`);
     }
     if (values.by !== undefined && values.by !== 'id') throw new InputError(`agree: --by takes 'id', got '${values.by}'`);
@@ -256,6 +330,11 @@ export const agree: Verb = {
     if (values['min-iou'] !== undefined && values.match === undefined) throw new InputError('agree: --min-iou needs --match iou');
     const byIou = values.match === 'iou';
     const minIou = parseMinIou(values['min-iou']);
+    if (positionals.length > 2) {
+      if (byIou) throw new InputError(`agree: --match iou compares two delineations, got ${positionals.length} files`);
+      out.stdout(severalFiles(positionals, values.json ?? false));
+      return 0;
+    }
     const [pathA, pathB] = positionals;
 
     const a = readLabels(pathA);

@@ -11,5 +11,5 @@ export { minCostAssignment, maxWeightMatching } from './hungarian.ts';
 export { matchByIou, candidatePairs, flatbushCandidates, allPairsCandidates, type Outline, type MatchedPair, type IouMatching } from './iouMatch.ts';
 export { delineationFigures, type DelineationFigures } from './delineation.ts';
 export { explainKappa, explainSpecific, explainFleiss, explainDelineation } from './explanations.ts';
-export { pairById, collidingIds, type CallOnPatch, type IdMismatch, type PairingResult } from './pairById.ts';
+export { pairById, alignById, collidingIds, type CallOnPatch, type IdMismatch, type PairingResult, type AlignedCalls, type AlignmentResult } from './pairById.ts';
 export { agreementSheet, type AgreementSheet, type SheetOptions } from './sheet.ts';

@@ -62,3 +62,35 @@ export function collidingIds(calls: readonly CallOnPatch[]): string[] {
   }
   return [...twice];
 }
+
+export interface AlignedCalls {
+  /** Patch ids in the first list's order. */
+  ids: string[];
+  /** calls[i][r]: interpreter r's class for patch ids[i]. */
+  calls: string[][];
+}
+
+export type AlignmentResult =
+  | { ok: true; aligned: AlignedCalls }
+  /** mismatches[r - 1] compares list r with the first list; empty lists are never ok. */
+  | { ok: false; mismatches: IdMismatch[] };
+
+/**
+ * Lines up three or more interpreters' calls by patch id (for Fleiss' kappa): every
+ * list must hold exactly the ids of the first one.
+ */
+export function alignById(lists: readonly (readonly CallOnPatch[])[]): AlignmentResult {
+  if (lists.length < 2) throw new RangeError(`aligning calls needs at least two lists, got ${lists.length}`);
+  const [first, ...others] = lists;
+  const byId = others.map((list) => new Map(list.map((c) => [String(c.id), c.species] as const)));
+  const mismatches = others.map((list) => {
+    const result = pairById(first, list);
+    return result.ok ? null : result.mismatch;
+  });
+  if (mismatches.some((m) => m !== null)) {
+    return { ok: false, mismatches: mismatches.map((m) => m ?? { onlyFirst: [], onlySecond: [], shared: first.length }) };
+  }
+  const ids = first.map((c) => String(c.id));
+  const calls = first.map((c) => [c.species, ...byId.map((m) => m.get(String(c.id))!)]);
+  return { ok: true, aligned: { ids, calls } };
+}
