@@ -41,7 +41,7 @@ function frameIdentity(frame: WebFrameMain | null | undefined): FrameIdentity | 
 function installBridge(): void {
   const handlers = createBridgeHandlers({
     registry,
-    demoDir: existsSync(demoDir) ? demoDir : undefined,
+    demoDir, // a missing folder is reported on first use, with the command that makes it
     async showOpenDialog(request) {
       if (!mainWindow) return [];
       const result = await dialog.showOpenDialog(mainWindow, {

@@ -141,13 +141,16 @@ async function main() {
   if (options.build) buildRenderer(options.dist, options.rebuild);
   if (options.web) return serveForBrowser(options);
 
-  let binary = electronBinary();
-  if (!binary && options.download) binary = tryDownloadElectron();
   const noDisplay = displayProblem();
-  if (!binary || noDisplay) {
-    console.log(noDisplay
-      ? `Fellfield: ${noDisplay}; serving Fellfield for your browser instead.`
-      : 'Electron\'s desktop binary is not available on this machine; serving Fellfield for your browser instead.');
+  let binary = electronBinary();
+  // Without a display the window could not open anyway: no point fetching the binary now.
+  if (!binary && options.download && !noDisplay) binary = tryDownloadElectron();
+  if (!binary) {
+    console.log('Electron\'s desktop binary is not available on this machine; serving Fellfield for your browser instead.');
+    return serveForBrowser(options);
+  }
+  if (noDisplay) {
+    console.log(`Fellfield: ${noDisplay}; serving Fellfield for your browser instead.`);
     return serveForBrowser(options);
   }
   if (options.build) buildShell(options.rebuild);

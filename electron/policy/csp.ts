@@ -1,6 +1,7 @@
 // The Content-Security-Policy of every page and file the app serves, sent as a header
 // by the Electron scheme handler and by the local web server (scripts/serve.mjs). It
-// matches the <meta> policy in index.html; a test keeps the two equal.
+// matches the <meta> policy in index.html (plus frame-ancestors, which only a header
+// can carry); a test keeps the two equal.
 
 export const CONTENT_SECURITY_POLICY = [
   "default-src 'self'",
