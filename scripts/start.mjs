@@ -14,6 +14,7 @@ import { fileURLToPath } from 'node:url';
 
 const repo = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const DOWNLOAD_TIMEOUT_MS = 120_000;
+const EARLY_EXIT_MS = 15_000;
 
 /** The Electron executable if it is installed, else undefined. */
 export function electronBinary(electronPackageDir = process.env.FELLFIELD_ELECTRON_DIR || path.join(repo, 'node_modules', 'electron')) {
@@ -125,14 +126,29 @@ async function serveForBrowser(options) {
   process.on('SIGTERM', stop);
 }
 
+/**
+ * Runs Electron on the app. Resolves with 'failed-early' when it exits with an error
+ * within the first seconds (missing system libraries, no usable sandbox), so the
+ * caller can fall back to the browser; otherwise this process ends with Electron.
+ */
 function launchElectron(binary, demoDir) {
   const env = { ...process.env, FELLFIELD_DEMO_DIR: demoDir };
   delete env.ELECTRON_RUN_AS_NODE;
+  const started = Date.now();
   const child = spawn(binary, [repo], { cwd: repo, env, stdio: 'inherit' });
   const forward = (signal) => child.kill(signal);
   process.on('SIGINT', forward);
   process.on('SIGTERM', forward);
-  child.on('exit', (code, signal) => process.exit(code ?? (signal ? 1 : 0)));
+  return new Promise((resolve) => {
+    const settle = (code) => {
+      process.off('SIGINT', forward);
+      process.off('SIGTERM', forward);
+      if (code !== 0 && Date.now() - started < EARLY_EXIT_MS) resolve({ outcome: 'failed-early', code });
+      else process.exit(code ?? 1);
+    };
+    child.on('error', () => settle(127));
+    child.on('exit', (code, signal) => settle(code ?? (signal ? 1 : 0)));
+  });
 }
 
 async function main() {
@@ -154,7 +170,9 @@ async function main() {
     return serveForBrowser(options);
   }
   if (options.build) buildShell(options.rebuild);
-  launchElectron(binary, options.demo);
+  const launch = await launchElectron(binary, options.demo);
+  console.log(`The desktop window could not start (Electron exited with ${launch.code}); serving Fellfield for your browser instead.`);
+  return serveForBrowser(options);
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {

@@ -47,18 +47,23 @@ describe('start decisions', () => {
   });
 });
 
+/** Runs start.mjs on a throwaway app folder; resolves with its output once it serves. */
+async function startAndWaitForAddress(electronDir: string) {
+  const dist = path.join(tmp, 'app', 'dist');
+  const demo = path.join(tmp, 'app', 'demo');
+  await mkdir(dist, { recursive: true });
+  await mkdir(demo, { recursive: true });
+  await writeFile(path.join(dist, 'index.html'), '<!doctype html><title>Fellfield</title>');
+  await writeFile(path.join(demo, 'manifest.json'), '{}');
+  return spawn(process.execPath, ['scripts/start.mjs', '--no-build', '--no-download', '--port', '0', '--dist', dist, '--demo', demo], {
+    cwd: path.resolve(import.meta.dirname, '../..'),
+    env: { ...process.env, FELLFIELD_ELECTRON_DIR: electronDir, DISPLAY: ':0' },
+  });
+}
+
 describe('the browser fallback', () => {
   it('says in one line that Electron is missing, then serves the app on 127.0.0.1', async () => {
-    const dist = path.join(tmp, 'app', 'dist');
-    const demo = path.join(tmp, 'app', 'demo');
-    await mkdir(dist, { recursive: true });
-    await mkdir(demo, { recursive: true });
-    await writeFile(path.join(dist, 'index.html'), '<!doctype html><title>Fellfield</title>');
-    await writeFile(path.join(demo, 'manifest.json'), '{}');
-    const child = spawn(process.execPath, ['scripts/start.mjs', '--no-build', '--no-download', '--port', '0', '--dist', dist, '--demo', demo], {
-      cwd: path.resolve(import.meta.dirname, '../..'),
-      env: { ...process.env, FELLFIELD_ELECTRON_DIR: path.join(tmp, 'no-electron'), DISPLAY: ':0' },
-    });
+    const child = await startAndWaitForAddress(path.join(tmp, 'no-electron'));
     try {
       let out = '';
       const url = await new Promise<string>((resolve, reject) => {
@@ -76,6 +81,31 @@ describe('the browser fallback', () => {
       expect(page.status).toBe(200);
       expect(await page.text()).toContain('<title>Fellfield</title>');
       expect((await fetch(`${url}demo/manifest.json`)).status).toBe(200);
+    } finally {
+      child.kill('SIGTERM');
+    }
+  });
+});
+
+describe('the fallback after a failed launch', () => {
+  it('serves for the browser when Electron exits with an error at once', async () => {
+    // A stand-in executable in the electron package layout that fails like a binary
+    // missing its system libraries would.
+    const pkg = path.join(tmp, 'broken-electron');
+    await mkdir(path.join(pkg, 'dist'), { recursive: true });
+    await writeFile(path.join(pkg, 'path.txt'), 'electron');
+    await writeFile(path.join(pkg, 'dist', 'electron'), '#!/bin/sh\necho "cannot open shared object file" >&2\nexit 127\n', { mode: 0o755 });
+    const child = await startAndWaitForAddress(pkg);
+    try {
+      let out = '';
+      await new Promise<void>((resolve, reject) => {
+        child.stdout.on('data', (chunk: Buffer) => {
+          out += chunk.toString();
+          if (/served at http:\/\/127\.0\.0\.1:\d+\//.test(out)) resolve();
+        });
+        child.on('exit', (code) => reject(new Error(`start.mjs exited ${code}: ${out}`)));
+      });
+      expect(out).toContain('The desktop window could not start (Electron exited with 127); serving Fellfield for your browser instead.');
     } finally {
       child.kill('SIGTERM');
     }
