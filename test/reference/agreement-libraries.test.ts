@@ -3,6 +3,7 @@ import { cohenKappa } from '../../src/core/agreement/cohenKappa.ts';
 import { confusionMatrix } from '../../src/core/agreement/confusionMatrix.ts';
 import { fleissKappa, ratingTable } from '../../src/core/agreement/fleissKappa.ts';
 import { maxWeightMatching } from '../../src/core/agreement/hungarian.ts';
+import { candidatePairs, matchByIou } from '../../src/core/agreement/iouMatch.ts';
 import { sharedArea } from '../../src/core/agreement/sharedArea.ts';
 import { multiPolygonArea } from '../../src/core/geometry/measure.ts';
 import { intersectionArea } from '../../src/core/geometry/overlay.ts';
@@ -77,5 +78,28 @@ describe('areas and overlaps against Shapely', () => {
     // The matcher's own shared-area routine, both ways round.
     expect(sharedArea(ra, rb)).toBeCloseTo(expected.intersection, 6);
     expect(sharedArea(rb, ra)).toBeCloseTo(expected.intersection, 6);
+  });
+});
+
+describe('IoU matching against Shapely and SciPy', () => {
+  // Two delineations of crowded crowns: Shapely computes every IoU, SciPy's
+  // linear_sum_assignment picks the pairs of largest total IoU among those ≥ 0.3.
+  const { min_iou: minIou, first, second } = inputs.delineation;
+  const expected = library.delineation;
+  const outlines = (shapes: { coordinates: unknown }[], prefix: string) =>
+    shapes.map((g, i) => ({ id: `${prefix}${i}`, rings: [g.coordinates] as MultiPolygonRings }));
+  const a = outlines(first, 'a');
+  const b = outlines(second, 'b');
+
+  it('finds the same candidate pairs', () => {
+    expect(candidatePairs(a, b, { minIou }).edges).toHaveLength(expected.candidates);
+  });
+
+  it('reaches the same number of matches and the same total IoU', () => {
+    const m = matchByIou(a, b, { minIou });
+    expect(m.pairs).toHaveLength(expected.matched);
+    // GEOS works on the raw UTM coordinates, we near the origin: they differ by ~1e-10.
+    expect(m.pairs.reduce((s, p) => s + p.iou, 0)).toBeCloseTo(expected.total_iou, 8);
+    expect(m.pairs.map((p) => [p.first, p.second])).toEqual(expected.pairs);
   });
 });
