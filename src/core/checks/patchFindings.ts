@@ -42,7 +42,8 @@ function invalidFinding(patch: PreparedPatch): Finding | null {
     kind: 'invalid',
     patches: [input.id],
     severity: onlyRepeats ? 'warning' : 'error',
-    message: `patch ${input.id} is not a valid polygon: ${issues.map((issue) => issue.message).join('; ')}`,
+    message: `patch ${input.id} is not a valid polygon: ${issues.map((issue) => issue.message).join('; ')}`
+      + (located ? ` (at ${located.point!.map((v) => v.toFixed(2)).join(', ')})` : ''),
     area_m2: null,
     geometry: located ? { type: 'Point', coordinates: located.point! } : null,
     reasons,
