@@ -171,6 +171,23 @@ describe('fellfield agree --match iou', () => {
     expect(doc.delineation.min_iou).toBe(0.7);
   });
 
+  it('measures lon/lat files in metres of one UTM zone before matching', async () => {
+    // RFC 7946 lon/lat squares, the second shifted east by a fifth of its width: over
+    // 10 m the projection is affine to well below 1e-3, so IoU is 0.8 / 1.2.
+    const lonLat = (name: string, shift: number) => {
+      const d = 0.0001;
+      const x = 10 + shift * d;
+      const feature = {
+        type: 'Feature', id: 'q1', properties: { species: 'larix' },
+        geometry: { type: 'Polygon', coordinates: [[[x, 46], [x + d, 46], [x + d, 46 + d], [x, 46 + d], [x, 46]]] },
+      };
+      return write(name, JSON.stringify({ type: 'FeatureCollection', features: [feature] }));
+    };
+    const doc = JSON.parse((await run(lonLat('ll-a.geojson', 0), lonLat('ll-b.geojson', 0.2), '--match', 'iou', '--json')).stdout);
+    expect(doc.delineation.matched).toBe(1);
+    expect(doc.delineation.mean_iou).toBeCloseTo(0.8 / 1.2, 3);
+  });
+
   it('prints the delineation block as text', async () => {
     const { stdout } = await run(a, b, '--match', 'iou');
     expect(stdout).toMatch(/Delineation \(IoU at least 0.5\)/);
