@@ -84,7 +84,8 @@ export async function runDemoData(argv: string[]): Promise<number> {
         allowPositionals: false,
       });
     } catch (error) {
-      throw new InputError((error as Error).message);
+      // node:util's messages can run over several lines; the user gets one.
+      throw new InputError((error as Error).message.replace(/\s*\n\s*/g, ' '));
     }
     const { values } = parsed;
     if (values.help) {
