@@ -4,7 +4,7 @@
 // Type checks are separate: `tsc --noEmit -p electron/tsconfig.json` (npm run typecheck).
 import { builtinModules } from 'node:module';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { build } from 'vite';
 
 const repo = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
@@ -36,7 +36,7 @@ export async function buildElectron() {
   await bundle('electron/preload.ts', 'cjs', 'preload.cjs', false);
 }
 
-if (import.meta.url === `file://${process.argv[1]}`) {
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
   await buildElectron();
   console.log('built dist-electron/main.js and dist-electron/preload.cjs');
 }

@@ -2,6 +2,7 @@
 // Packaging step: `node scripts/flip-fuses.mjs <path to the packaged Electron binary>`.
 // Also usable as a packager's after-pack hook through the exported function.
 import { tsImport } from 'tsx/esm/api';
+import { pathToFileURL } from 'node:url';
 
 const { flipPackagedFuses, getCurrentFuseWire } = await tsImport('../electron/fuses.ts', import.meta.url);
 
@@ -10,7 +11,7 @@ export async function flipFusesOf(binaryPath) {
   return getCurrentFuseWire(binaryPath);
 }
 
-if (import.meta.url === `file://${process.argv[1]}`) {
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
   const target = process.argv[2];
   if (!target) {
     console.error('usage: node scripts/flip-fuses.mjs <path to the packaged Electron binary>');

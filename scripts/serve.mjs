@@ -7,7 +7,7 @@ import { createReadStream } from 'node:fs';
 import { stat } from 'node:fs/promises';
 import http from 'node:http';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { tsImport } from 'tsx/esm/api';
 import { parseRangeHeader } from './http-range.mjs';
 
@@ -140,7 +140,7 @@ function argValue(argv, name) {
   return index >= 0 ? argv[index + 1] : undefined;
 }
 
-if (import.meta.url === `file://${process.argv[1]}`) {
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
   const argv = process.argv.slice(2);
   const port = Number(argValue(argv, '--port') ?? DEFAULT_PORT);
   try {

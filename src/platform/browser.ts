@@ -87,9 +87,13 @@ export class BrowserPlatform implements Platform {
         if (error instanceof Error && error.name === 'AbortError') return false;
         throw new PlatformError('io', `could not open the save dialog (${error instanceof Error ? error.message : String(error)})`, suggestedName);
       }
-      const writable = await handle.createWritable();
-      await writable.write(blob);
-      await writable.close();
+      try {
+        const writable = await handle.createWritable();
+        await writable.write(blob);
+        await writable.close();
+      } catch (error) {
+        throw new PlatformError('io', `could not be written (${error instanceof Error ? error.message : String(error)})`, suggestedName);
+      }
       return true;
     }
     const doc = this.#requireDocument('saving files');
