@@ -8,7 +8,7 @@ import { fileURLToPath } from 'node:url';
 import { CHANNELS, type ChannelKey } from '../src/platform/channels.ts';
 import { createAppProtocolHandler } from './app-protocol.ts';
 import { createBridgeHandlers, createBridgeRouter } from './bridge-handlers.ts';
-import { APP_ENTRY_URL, APP_SCHEME, mayNavigate, windowOpenDecision } from './policy/app-origin.ts';
+import { APP_ENTRY_URL, APP_SCHEME, mayLoad, mayNavigate, windowOpenDecision } from './policy/app-origin.ts';
 import { FileHandleRegistry } from './policy/file-handles.ts';
 import { mayGrantPermission, secureWebPreferences } from './policy/permissions.ts';
 import type { FrameIdentity } from './policy/sender.ts';
@@ -93,8 +93,9 @@ function installSessionPolicy(): void {
   ses.setDevicePermissionHandler(() => false);
   // No remote content: only our scheme and in-page data/blob URLs may load at all.
   ses.webRequest.onBeforeRequest((details, callback) => {
-    const scheme = details.url.slice(0, details.url.indexOf(':'));
-    callback({ cancel: !['app', 'data', 'blob', 'devtools'].includes(scheme) });
+    const allowed = mayLoad(details.url);
+    if (!allowed) log(`blocked a request for ${details.url}`);
+    callback({ cancel: !allowed });
   });
   ses.protocol.handle(APP_SCHEME, createAppProtocolHandler({ root: bundleDir, log }));
 }

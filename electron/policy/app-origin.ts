@@ -35,6 +35,16 @@ export function mayNavigate(url: unknown): boolean {
   return isAppUrl(url);
 }
 
+/** In-page URL schemes the app's own pages make (images, workers, decoded tiles), and the developer tools. */
+const IN_PAGE_SCHEMES = new Set(['data:', 'blob:', 'devtools:']);
+
+/** Whether the session may load a URL at all: our origin and in-page URLs, never the network or file://. */
+export function mayLoad(url: unknown): boolean {
+  if (isAppUrl(url)) return true;
+  const parsed = parseUrl(url);
+  return parsed !== undefined && IN_PAGE_SCHEMES.has(parsed.protocol);
+}
+
 /** The app opens no windows of its own and no remote pages: every request is denied. */
 export function windowOpenDecision(_url: unknown): { action: 'deny' } {
   return { action: 'deny' };

@@ -3,7 +3,7 @@
 // Electron's security checklist ("Do not use string prefixes to compare origins" is
 // common practice; the checklist is https://www.electronjs.org/docs/latest/tutorial/security).
 import { describe, expect, it } from 'vitest';
-import { APP_ENTRY_URL, isAppUrl, mayNavigate, windowOpenDecision } from '../../electron/policy/app-origin.ts';
+import { APP_ENTRY_URL, isAppUrl, mayLoad, mayNavigate, windowOpenDecision } from '../../electron/policy/app-origin.ts';
 
 describe('the app origin', () => {
   it('accepts the app entry and any path, query or fragment on app://fellfield', () => {
@@ -43,5 +43,18 @@ describe('the app origin', () => {
   it('denies every new window, even one for our own origin', () => {
     expect(windowOpenDecision('https://example.org/')).toEqual({ action: 'deny' });
     expect(windowOpenDecision(APP_ENTRY_URL)).toEqual({ action: 'deny' });
+  });
+});
+
+describe('what the session may load', () => {
+  it('loads our origin and in-page URLs only: no network, no files, no other app host', () => {
+    for (const url of [APP_ENTRY_URL, 'app://fellfield/assets/render.worker-1a2b.js', 'data:image/png;base64,iVBORw0KGgo=',
+      'blob:app://fellfield/6f1c2a9e-0000-4000-8000-000000000000', 'devtools://devtools/bundled/inspector.html']) {
+      expect(mayLoad(url), url).toBe(true);
+    }
+    for (const url of ['https://tiles.example.org/0/0/0.png', 'http://127.0.0.1:5217/', 'ws://127.0.0.1:1/', 'file:///etc/passwd',
+      'app://fellfield.evil/x.js', 'chrome://settings', 'ftp://example.org/', 'not a url']) {
+      expect(mayLoad(url), url).toBe(false);
+    }
   });
 });
