@@ -1,11 +1,17 @@
 import type { Extent, MultiPolygonRings, PolygonRings, Ring } from './types.ts';
 
-/** Signed area of a ring by the shoelace formula: positive when counter-clockwise. */
+/**
+ * Signed area of a ring by the shoelace formula: positive when counter-clockwise.
+ * Coordinates are taken relative to the first vertex, so UTM-sized values (10^6-10^7 m)
+ * keep their sub-millimetre precision in the products.
+ */
 export function ringSignedArea(ring: Ring): number {
-  let sum = 0;
   const n = ring.length;
+  if (n === 0) return 0;
+  const [x0, y0] = ring[0];
+  let sum = 0;
   for (let i = 0, j = n - 1; i < n; j = i++) {
-    sum += (ring[j][0] - ring[i][0]) * (ring[j][1] + ring[i][1]);
+    sum += (ring[j][0] - ring[i][0]) * (ring[j][1] - y0 + ring[i][1] - y0);
   }
   return sum / 2;
 }
