@@ -8,7 +8,7 @@ import type { Extent, MultiPolygonRings, PolygonRings, Ring } from './types.ts';
 export function ringSignedArea(ring: Ring): number {
   const n = ring.length;
   if (n === 0) return 0;
-  const [x0, y0] = ring[0];
+  const y0 = ring[0][1]; // x enters only as differences
   let sum = 0;
   for (let i = 0, j = n - 1; i < n; j = i++) {
     sum += (ring[j][0] - ring[i][0]) * (ring[j][1] - y0 + ring[i][1] - y0);
