@@ -1,0 +1,149 @@
+import { SiteRuleError } from './SiteRuleError.ts';
+import { UNDOABLE_KINDS, type LedgerEvent } from './events.ts';
+import { UNDO_DEPTH, type SiteState } from './state.ts';
+import { tagKey, type Patch, type Tag } from './types.ts';
+
+// The one reducer of the site: pure, it returns a new state and never changes the one it
+// was given (maps are copied only when the event touches them). It refuses an event that
+// does not fit the state, so a stale or forged event never half-applies.
+
+function withSet<K, V>(map: ReadonlyMap<K, V>, entries: Iterable<[K, V]>): Map<K, V> {
+  const next = new Map(map);
+  for (const [k, v] of entries) next.set(k, v);
+  return next;
+}
+
+function withDeleted<K, V>(map: ReadonlyMap<K, V>, keys: Iterable<K>): Map<K, V> {
+  const next = new Map(map);
+  for (const k of keys) next.delete(k);
+  return next;
+}
+
+function requirePatch(state: SiteState, id: string): Patch {
+  const patch = state.patches.get(id);
+  if (!patch) throw new SiteRuleError(`no patch ${id} in the site`);
+  return patch;
+}
+
+function addPatches(state: SiteState, patches: Patch[], tags: Tag[]): Partial<SiteState> {
+  for (const p of patches) if (state.patches.has(p.id)) throw new SiteRuleError(`patch ${p.id} already exists`);
+  return {
+    patches: withSet(state.patches, patches.map((p) => [p.id, p])),
+    tags: tags.length ? withSet(state.tags, tags.map((t) => [tagKey(t.patchId, t.passId), t])) : state.tags,
+  };
+}
+
+function removePatches(state: SiteState, patches: Patch[], tags: Tag[]): Partial<SiteState> {
+  const ids = new Set(patches.map((p) => p.id));
+  for (const id of ids) requirePatch(state, id);
+  const listed = new Set(tags.map((t) => tagKey(t.patchId, t.passId)));
+  for (const [key, tag] of state.tags) {
+    if (ids.has(tag.patchId) && !listed.has(key)) throw new SiteRuleError(`patch ${tag.patchId} has a tag the event does not carry`);
+  }
+  return { patches: withDeleted(state.patches, ids), tags: withDeleted(state.tags, listed) };
+}
+
+function applyChange(state: SiteState, event: LedgerEvent): Partial<SiteState> {
+  switch (event.kind) {
+    case 'site.created':
+      if (state.site) throw new SiteRuleError('the site already exists');
+      return { site: event.payload.site };
+    case 'site.renamed':
+      if (!state.site) throw new SiteRuleError('no site to rename');
+      return { site: { ...state.site, name: event.payload.name } };
+    case 'scene.added':
+      if (state.scenes.has(event.payload.scene.id)) throw new SiteRuleError(`scene ${event.payload.scene.id} already exists`);
+      return { scenes: withSet(state.scenes, [[event.payload.scene.id, event.payload.scene]]) };
+    case 'roster.set':
+      return { roster: event.payload.entries };
+    case 'patch.added':
+      return addPatches(state, [event.payload.patch], event.payload.tags);
+    case 'patch.deleted':
+      return removePatches(state, [event.payload.patch], event.payload.tags);
+    case 'patch.geometry': {
+      const patch = requirePatch(state, event.payload.patchId);
+      return { patches: withSet(state.patches, [[patch.id, { ...patch, geometry: event.payload.geometry }]]) };
+    }
+    case 'tag.set': {
+      const { patchId, passId, tag } = event.payload;
+      requirePatch(state, patchId);
+      if (!state.passes.has(passId)) throw new SiteRuleError(`no pass ${passId} in the site`);
+      const key = tagKey(patchId, passId);
+      if (tag && (tag.patchId !== patchId || tag.passId !== passId)) throw new SiteRuleError('the tag names another patch or pass');
+      return { tags: tag ? withSet(state.tags, [[key, tag]]) : withDeleted(state.tags, [key]) };
+    }
+    case 'import.added': {
+      const { record, patches, tags, references } = event.payload;
+      if (state.imports.has(record.id)) throw new SiteRuleError(`import ${record.id} already exists`);
+      return {
+        ...addPatches(state, patches, tags),
+        imports: withSet(state.imports, [[record.id, record]]),
+        references: withSet(state.references, references.map((r) => [r.id, r])),
+      };
+    }
+    case 'import.removed': {
+      const { record, patches, tags, references } = event.payload;
+      if (!state.imports.has(record.id)) throw new SiteRuleError(`no import ${record.id} in the site`);
+      return {
+        ...removePatches(state, patches, tags),
+        imports: withDeleted(state.imports, [record.id]),
+        references: withDeleted(state.references, references.map((r) => r.id)),
+      };
+    }
+    case 'pass.started':
+      if (state.passes.has(event.payload.pass.id)) throw new SiteRuleError(`pass ${event.payload.pass.id} already exists`);
+      return { passes: withSet(state.passes, [[event.payload.pass.id, event.payload.pass]]) };
+    case 'pass.ended': {
+      const pass = state.passes.get(event.payload.passId);
+      if (!pass) throw new SiteRuleError(`no pass ${event.payload.passId} in the site`);
+      return { passes: withSet(state.passes, [[pass.id, { ...pass, endedAt: event.payload.time }]]) };
+    }
+    case 'ruling.recorded': {
+      const { ruling } = event.payload;
+      requirePatch(state, ruling.patchId);
+      if (state.rulings.has(ruling.id)) throw new SiteRuleError(`ruling ${ruling.id} already exists`);
+      return { rulings: withSet(state.rulings, [[ruling.id, ruling]]) };
+    }
+    case 'ruling.reopened': {
+      const { rulingId, by, time, reason } = event.payload;
+      const ruling = state.rulings.get(rulingId);
+      if (!ruling) throw new SiteRuleError(`no ruling ${rulingId} in the site`);
+      return { rulings: withSet(state.rulings, [[rulingId, { ...ruling, reopened: { by, time, reason } }]]) };
+    }
+    default: {
+      const unknown: never = event;
+      throw new SiteRuleError(`unknown event kind ${(unknown as { kind: string }).kind}`);
+    }
+  }
+}
+
+function nextHistory(history: SiteState['history'], event: LedgerEvent): SiteState['history'] {
+  const top = (stack: readonly number[]) => stack[stack.length - 1];
+  if (event.undoes !== undefined) {
+    if (top(history.undo) !== event.undoes) throw new SiteRuleError(`event ${event.undoes} is not the next to undo`);
+    return { undo: history.undo.slice(0, -1), redo: [...history.redo, event.seq] };
+  }
+  if (event.redoes !== undefined) {
+    if (top(history.redo) !== event.redoes) throw new SiteRuleError(`event ${event.redoes} is not the next to redo`);
+    return { undo: [...history.undo, event.seq], redo: history.redo.slice(0, -1) };
+  }
+  if (!UNDOABLE_KINDS.has(event.kind)) return history;
+  return { undo: [...history.undo, event.seq].slice(-UNDO_DEPTH), redo: [] };
+}
+
+/** The state after one ledger event. The event must follow the state's head. */
+export function applyEvent(state: SiteState, event: LedgerEvent): SiteState {
+  if (event.seq !== state.head.seq + 1) throw new SiteRuleError(`event ${event.seq} does not follow ${state.head.seq}`);
+  if (event.prev !== state.head.hash) throw new SiteRuleError(`event ${event.seq} is chained to another ledger`);
+  if (event.seq > 1 && !state.site) throw new SiteRuleError('the ledger does not begin with site.created');
+  if (event.seq === 1 && event.kind !== 'site.created') throw new SiteRuleError('the ledger must begin with site.created');
+  const change = applyChange(state, event);
+  return { ...state, ...change, history: nextHistory(state.history, event), head: { seq: event.seq, hash: event.hash } };
+}
+
+/** Replays events in order from a given state (empty for a whole ledger). */
+export function replay(state: SiteState, events: Iterable<LedgerEvent>): SiteState {
+  let current = state;
+  for (const event of events) current = applyEvent(current, event);
+  return current;
+}

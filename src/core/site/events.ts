@@ -1,0 +1,68 @@
+import type {
+  ImportRecord, Pass, Patch, ReferenceFeature, RosterEntry, Ruling, SceneRef, Site, Tag,
+} from './types.ts';
+
+// The ledger's event kinds. Each change to a site is exactly one of these. Events that
+// can be undone carry both the new and the previous value, so their inverse is another
+// event of the same family, built from the payload alone (see inverse.ts).
+
+export interface EventPayloads {
+  /** The first event of every ledger. */
+  'site.created': { site: Site };
+  'site.renamed': { name: string; previous: string };
+  'scene.added': { scene: SceneRef };
+  /** The whole roster replaced (edits, imports). */
+  'roster.set': { entries: RosterEntry[]; previous: RosterEntry[] };
+  /** A patch with its tags (tags are non-empty when an undo restores a deleted patch). */
+  'patch.added': { patch: Patch; tags: Tag[] };
+  'patch.deleted': { patch: Patch; tags: Tag[] };
+  'patch.geometry': { patchId: string; geometry: Patch['geometry']; previous: Patch['geometry'] };
+  /** A tag set, changed or (tag null) removed; `previous` is what it replaced. */
+  'tag.set': { patchId: string; passId: string; tag: Tag | null; previous: Tag | null };
+  /** A field file imported: its record, new patches, their tags, reference features. */
+  'import.added': { record: ImportRecord; patches: Patch[]; tags: Tag[]; references: ReferenceFeature[] };
+  'import.removed': { record: ImportRecord; patches: Patch[]; tags: Tag[]; references: ReferenceFeature[] };
+  'pass.started': { pass: Pass };
+  'pass.ended': { passId: string; time: string };
+  'ruling.recorded': { ruling: Ruling };
+  'ruling.reopened': { rulingId: string; by: string; time: string; reason: string };
+}
+
+export type EventKind = keyof EventPayloads;
+
+export const EVENT_KINDS = [
+  'site.created', 'site.renamed', 'scene.added', 'roster.set', 'patch.added', 'patch.deleted',
+  'patch.geometry', 'tag.set', 'import.added', 'import.removed', 'pass.started', 'pass.ended',
+  'ruling.recorded', 'ruling.reopened',
+] as const satisfies readonly EventKind[];
+
+/** An event as a use case proposes it, before the ledger numbers and hashes it. */
+export type EventDraft = {
+  [K in EventKind]: {
+    kind: K;
+    payload: EventPayloads[K];
+    /** who made the change */
+    actor: string;
+    /** ISO 8601 UTC */
+    time: string;
+    /** set on an undo: the seq of the event it reverses */
+    undoes?: number;
+    /** set on a redo: the seq of the undo event it reverses */
+    redoes?: number;
+  };
+}[EventKind];
+
+/** An event as stored: numbered from 1, chained to the one before by its hash. */
+export type LedgerEvent = EventDraft & {
+  seq: number;
+  /** hash of the previous event; 64 zeros for seq 1 */
+  prev: string;
+  /** SHA-256 (hex) of the canonical JSON of every other member */
+  hash: string;
+};
+
+/** The kinds that go on the undo stack. */
+export const UNDOABLE_KINDS: ReadonlySet<EventKind> = new Set<EventKind>([
+  'site.renamed', 'roster.set', 'patch.added', 'patch.deleted', 'patch.geometry', 'tag.set',
+  'import.added', 'import.removed',
+]);

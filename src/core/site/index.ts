@@ -1,0 +1,9 @@
+// The site model's public surface.
+export * from './types.ts';
+export * from './events.ts';
+export * from './state.ts';
+export { applyEvent, replay } from './applyEvent.ts';
+export { inverseOf } from './inverse.ts';
+export { touchedRows, type TouchedRows } from './touchedRows.ts';
+export { SiteRuleError } from './SiteRuleError.ts';
+export { rosterProblems, isTaggable, type RosterProblem } from './roster.ts';
