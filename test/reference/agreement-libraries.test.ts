@@ -48,13 +48,12 @@ describe('optimal assignment against SciPy', () => {
   it.each(inputs.assignment.map((c, i) => ({ ...c, expected: library.assignment[i], shape: `${c.weights.length}×${c.weights[0].length}` })))(
     'reaches the total of scipy.optimize.linear_sum_assignment on $shape',
     ({ weights, expected }) => {
-      const pairs = maxWeightMatching(weights);
-      const rows = new Set(pairs.map(([r]) => r));
-      const columns = new Set(pairs.map(([, c]) => c));
-      expect(rows.size).toBe(pairs.length);
-      expect(columns.size).toBe(pairs.length);
-      const total = pairs.reduce((s, [r, c]) => s + weights[r][c], 0);
-      expect(total).toBeCloseTo(expected.scipy_max_total, 10);
+      // Zero cells are "no edge"; SciPy sees them as pairs worth nothing, the same total.
+      const edges = weights.flatMap((row, r) => row.flatMap((weight, column) => (weight > 0 ? [{ row: r, column, weight }] : [])));
+      const pairs = maxWeightMatching(weights.length, weights[0].length, edges);
+      expect(new Set(pairs.map((e) => e.row)).size).toBe(pairs.length);
+      expect(new Set(pairs.map((e) => e.column)).size).toBe(pairs.length);
+      expect(pairs.reduce((s, e) => s + e.weight, 0)).toBeCloseTo(expected.scipy_max_total, 10);
     },
   );
 });

@@ -1,84 +1,193 @@
-/**
- * The optimal one-to-one assignment (Kuhn 1955; Munkres 1957) in its shortest
- * augmenting path form with row and column potentials, O(rows² · columns).
- * Minimises the total cost over a rows × columns matrix with rows ≤ columns;
- * returns, for every row, the column assigned to it.
- */
-export function minCostAssignment(cost: readonly (readonly number[])[]): number[] {
-  const rows = cost.length;
-  if (rows === 0) return [];
-  const columns = cost[0].length;
-  if (rows > columns) throw new RangeError(`assignment needs rows ≤ columns, got ${rows} × ${columns}`);
-  // 1-based arrays; index 0 of `rowOfColumn` is the virtual column the search starts from.
-  const u = new Float64Array(rows + 1);
-  const v = new Float64Array(columns + 1);
-  const rowOfColumn = new Int32Array(columns + 1);
-  const way = new Int32Array(columns + 1);
-  const minSlack = new Float64Array(columns + 1);
-  const used = new Uint8Array(columns + 1);
-  for (let r = 1; r <= rows; r++) {
-    rowOfColumn[0] = r;
-    let c0 = 0;
-    minSlack.fill(Infinity);
-    used.fill(0);
-    // Grow a tree of tight edges from row r until it reaches a free column.
-    do {
-      used[c0] = 1;
-      const r0 = rowOfColumn[c0];
-      let delta = Infinity;
-      let c1 = 0;
-      for (let c = 1; c <= columns; c++) {
-        if (used[c]) continue;
-        const slack = cost[r0 - 1][c - 1] - u[r0] - v[c];
-        if (slack < minSlack[c]) {
-          minSlack[c] = slack;
-          way[c] = c0;
-        }
-        if (minSlack[c] < delta) {
-          delta = minSlack[c];
-          c1 = c;
-        }
-      }
-      for (let c = 0; c <= columns; c++) {
-        if (used[c]) {
-          u[rowOfColumn[c]] += delta;
-          v[c] -= delta;
-        } else minSlack[c] -= delta;
-      }
-      c0 = c1;
-    } while (rowOfColumn[c0] !== 0);
-    // Flip the augmenting path back to the virtual column.
-    do {
-      const c1 = way[c0];
-      rowOfColumn[c0] = rowOfColumn[c1];
-      c0 = c1;
-    } while (c0 !== 0);
+/** A candidate pair between row `row` and column `column`, worth `weight` (> 0). */
+export interface WeightedEdge {
+  row: number;
+  column: number;
+  weight: number;
+}
+
+/** A binary min-heap of (key, value) pairs with lazy deletion by the caller. */
+class MinHeap {
+  private keys: number[] = [];
+  private values: number[] = [];
+  get size() {
+    return this.keys.length;
   }
-  const columnOfRow = new Array<number>(rows).fill(-1);
-  for (let c = 1; c <= columns; c++) if (rowOfColumn[c] > 0) columnOfRow[rowOfColumn[c] - 1] = c - 1;
-  return columnOfRow;
+  clear() {
+    this.keys.length = 0;
+    this.values.length = 0;
+  }
+  push(key: number, value: number) {
+    const keys = this.keys;
+    const values = this.values;
+    let i = keys.length;
+    keys.push(key);
+    values.push(value);
+    while (i > 0) {
+      const parent = (i - 1) >> 1;
+      if (keys[parent] <= key) break;
+      keys[i] = keys[parent];
+      values[i] = values[parent];
+      i = parent;
+    }
+    keys[i] = key;
+    values[i] = value;
+  }
+  /** Removes the smallest pair; returns its value, with its key in `lastKey`. */
+  pop(): number {
+    const keys = this.keys;
+    const values = this.values;
+    const topValue = values[0];
+    this.lastKey = keys[0];
+    const key = keys.pop()!;
+    const value = values.pop()!;
+    const n = keys.length;
+    if (n > 0) {
+      let i = 0;
+      for (;;) {
+        let child = 2 * i + 1;
+        if (child >= n) break;
+        if (child + 1 < n && keys[child + 1] < keys[child]) child++;
+        if (keys[child] >= key) break;
+        keys[i] = keys[child];
+        values[i] = values[child];
+        i = child;
+      }
+      keys[i] = key;
+      values[i] = value;
+    }
+    return topValue;
+  }
+  lastKey = 0;
 }
 
 /**
- * The one-to-one pairing of largest total weight over a weights matrix of any shape
- * (weights ≥ 0; a zero weight means "no edge" and is never returned as a pair).
+ * The one-to-one pairing of largest total weight over sparse candidate edges: the
+ * Hungarian method (Kuhn 1955; Munkres 1957) in its shortest augmenting path form,
+ * with Dijkstra's search over reduced costs (as in Jonker & Volgenant 1987), one
+ * row at a time. Each row also gets a private "stay unmatched" column, so the
+ * minimum-cost assignment of every row is the maximum-weight matching. Only edges are stored, so a large delineation whose
+ * candidates chain into one big group still costs little memory and time.
+ * Returns the chosen edges, sorted by row.
  */
-export function maxWeightMatching(weights: readonly (readonly number[])[]): Array<[row: number, column: number]> {
-  const rows = weights.length;
-  if (rows === 0) return [];
-  const columns = weights[0].length;
-  if (columns === 0) return [];
-  const flip = rows > columns;
-  const max = Math.max(0, ...weights.flat());
-  // Cost = max − weight turns the maximum into a minimum; transpose so rows ≤ columns.
-  const cost = flip
-    ? Array.from({ length: columns }, (_, c) => Array.from({ length: rows }, (__, r) => max - weights[r][c]))
-    : weights.map((row) => row.map((w) => max - w));
-  const assigned = minCostAssignment(cost);
-  const pairs: Array<[number, number]> = [];
-  assigned.forEach((other, i) => {
-    const [r, c] = flip ? [other, i] : [i, other];
-    if (other >= 0 && weights[r][c] > 0) pairs.push([r, c]);
+export function maxWeightMatching<E extends WeightedEdge>(rowCount: number, columnCount: number, edges: readonly E[]): E[] {
+  for (const e of edges) {
+    if (!(e.weight > 0) || !Number.isFinite(e.weight)) throw new RangeError(`edge ${e.row}–${e.column} has weight ${e.weight}, expected a positive number`);
+    if (e.row < 0 || e.row >= rowCount || e.column < 0 || e.column >= columnCount) throw new RangeError(`edge ${e.row}–${e.column} lies outside ${rowCount} × ${columnCount}`);
+  }
+  // Adjacency of rows (compressed): columns and costs of each row's edges.
+  const start = new Int32Array(rowCount + 1);
+  for (const e of edges) start[e.row + 1]++;
+  for (let r = 0; r < rowCount; r++) start[r + 1] += start[r];
+  const fill = start.slice(0, rowCount);
+  // Costs W − weight, and W for staying unmatched: all ≥ 0, so the search can start
+  // from zero potentials, and every free column keeps the same potential (0), which
+  // is what lets Dijkstra compare paths that end at different free columns.
+  let heaviest = 0;
+  for (const e of edges) heaviest = Math.max(heaviest, e.weight);
+  const adjColumn = new Int32Array(edges.length);
+  const adjCost = new Float64Array(edges.length);
+  const adjEdge = new Int32Array(edges.length);
+  edges.forEach((e, k) => {
+    const at = fill[e.row]++;
+    adjColumn[at] = e.column;
+    adjCost[at] = heaviest - e.weight;
+    adjEdge[at] = k;
   });
-  return pairs.sort((a, b) => a[0] - b[0]);
+
+  // Columns 0..columnCount-1 are real; column columnCount + r is row r's own "unmatched".
+  const totalColumns = columnCount + rowCount;
+  const u = new Float64Array(rowCount);
+  const v = new Float64Array(totalColumns);
+  const rowOfColumn = new Int32Array(totalColumns).fill(-1);
+  const columnOfRow = new Int32Array(rowCount).fill(-1);
+
+  const dist = new Float64Array(totalColumns).fill(Infinity);
+  const previousRow = new Int32Array(totalColumns);
+  const done = new Uint8Array(totalColumns);
+  const touched: number[] = [];
+  const heap = new MinHeap();
+
+  const relax = (row: number, base: number) => {
+    for (let a = start[row]; a < start[row + 1]; a++) {
+      const c = adjColumn[a];
+      if (done[c]) continue;
+      const d = base + adjCost[a] - u[row] - v[c];
+      if (d < dist[c]) {
+        if (dist[c] === Infinity) touched.push(c);
+        dist[c] = d;
+        previousRow[c] = row;
+        heap.push(d, c);
+      }
+    }
+    const own = columnCount + row;
+    if (!done[own]) {
+      const d = base + heaviest - u[row] - v[own];
+      if (d < dist[own]) {
+        if (dist[own] === Infinity) touched.push(own);
+        dist[own] = d;
+        previousRow[own] = row;
+        heap.push(d, own);
+      }
+    }
+  };
+
+  const scanned: number[] = [];
+  for (let r0 = 0; r0 < rowCount; r0++) {
+    heap.clear();
+    scanned.length = 0;
+    relax(r0, 0);
+    let free = -1;
+    let shortest = 0;
+    // Dijkstra over columns: through a matched column, continue from its row.
+    while (heap.size > 0) {
+      const c = heap.pop();
+      const d = heap.lastKey;
+      if (done[c] || d > dist[c]) continue;
+      done[c] = 1;
+      scanned.push(c);
+      if (rowOfColumn[c] === -1) {
+        free = c;
+        shortest = d;
+        break;
+      }
+      relax(rowOfColumn[c], d);
+    }
+    // The own column is always reachable, so a free column is always found.
+    // Move the potentials so the tree's edges stay tight and every reduced cost ≥ 0.
+    u[r0] += shortest;
+    for (const c of scanned) {
+      const gap = shortest - dist[c];
+      v[c] -= gap;
+      const row = rowOfColumn[c];
+      if (row !== -1) u[row] += gap;
+    }
+    // Flip the augmenting path back to r0.
+    let c = free;
+    for (;;) {
+      const row = previousRow[c];
+      const next = columnOfRow[row];
+      rowOfColumn[c] = row;
+      columnOfRow[row] = c;
+      if (row === r0) break;
+      c = next;
+    }
+    for (const t of touched) {
+      dist[t] = Infinity;
+      done[t] = 0;
+    }
+    touched.length = 0;
+  }
+
+  // Read the chosen edges back (the cheapest edge where one pair has several).
+  const chosen: E[] = [];
+  for (let r = 0; r < rowCount; r++) {
+    const c = columnOfRow[r];
+    if (c < 0 || c >= columnCount) continue;
+    let best = -1;
+    for (let a = start[r]; a < start[r + 1]; a++) {
+      if (adjColumn[a] === c && (best === -1 || adjCost[a] < adjCost[best])) best = a;
+    }
+    chosen.push(edges[adjEdge[best]]);
+  }
+  return chosen;
 }

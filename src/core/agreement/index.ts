@@ -7,7 +7,7 @@ export { pabak } from './pabak.ts';
 export { specificAgreement, type ClassAgreement } from './specificAgreement.ts';
 export { breakdownBy, type GroupAgreement } from './breakdown.ts';
 export { fleissKappa, ratingTable, type FleissKappa } from './fleissKappa.ts';
-export { minCostAssignment, maxWeightMatching } from './hungarian.ts';
+export { maxWeightMatching, type WeightedEdge } from './hungarian.ts';
 export { matchByIou, candidatePairs, flatbushCandidates, allPairsCandidates, type Outline, type MatchedPair, type IouMatching } from './iouMatch.ts';
 export { delineationFigures, type DelineationFigures } from './delineation.ts';
 export { explainKappa, explainSpecific, explainFleiss, explainDelineation } from './explanations.ts';

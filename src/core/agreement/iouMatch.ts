@@ -113,14 +113,14 @@ function checkedMinIou(minIou = 0.5): number {
 /**
  * Matches two delineations of the same area one-to-one by IoU: pairs at or above
  * `minIou` are candidates, and the assignment of largest total IoU among them is
- * chosen (Kuhn–Munkres, run on each connected group of candidates so that large
- * delineations stay fast). A greedy "best pair first" choice can lose matches; the
- * optimal assignment cannot.
+ * chosen (Kuhn–Munkres over the sparse candidates). A greedy "best pair first"
+ * choice can lose matches; the optimal assignment cannot.
  */
 export function matchByIou(first: readonly Outline[], second: readonly Outline[], options: IouMatchOptions = {}): IouMatching {
   const minIou = checkedMinIou(options.minIou);
   const { edges, firstAreas, secondAreas } = candidatePairs(first, second, options);
-  const pairs = assignByGroup(first.length, second.length, edges);
+  const weighted = edges.map((e) => ({ row: e.first, column: e.second, weight: e.iou, pair: e }));
+  const pairs = maxWeightMatching(first.length, second.length, weighted).map((e) => e.pair);
   const matchedFirst = new Set(pairs.map((p) => p.first));
   const matchedSecond = new Set(pairs.map((p) => p.second));
   return {
@@ -132,44 +132,4 @@ export function matchByIou(first: readonly Outline[], second: readonly Outline[]
     secondAreas,
     candidates: edges.length,
   };
-}
-
-/** Splits the candidate graph into connected groups and assigns each optimally. */
-function assignByGroup(firstCount: number, secondCount: number, edges: MatchedPair[]): MatchedPair[] {
-  // Union-find over nodes: first outlines 0..firstCount-1, second ones after them.
-  const parent = Int32Array.from({ length: firstCount + secondCount }, (_, i) => i);
-  const find = (x: number): number => {
-    while (parent[x] !== x) {
-      parent[x] = parent[parent[x]];
-      x = parent[x];
-    }
-    return x;
-  };
-  for (const e of edges) parent[find(e.first)] = find(firstCount + e.second);
-  const groups = new Map<number, MatchedPair[]>();
-  for (const e of edges) {
-    const root = find(e.first);
-    let list = groups.get(root);
-    if (!list) groups.set(root, (list = []));
-    list.push(e);
-  }
-  const chosen: MatchedPair[] = [];
-  for (const list of groups.values()) {
-    if (list.length === 1) {
-      chosen.push(list[0]);
-      continue;
-    }
-    const rows = [...new Set(list.map((e) => e.first))];
-    const columns = [...new Set(list.map((e) => e.second))];
-    const rowAt = new Map(rows.map((r, i) => [r, i] as const));
-    const columnAt = new Map(columns.map((c, i) => [c, i] as const));
-    const weights = rows.map(() => new Array<number>(columns.length).fill(0));
-    const edgeAt = new Map<string, MatchedPair>();
-    for (const e of list) {
-      weights[rowAt.get(e.first)!][columnAt.get(e.second)!] = e.iou;
-      edgeAt.set(`${e.first} ${e.second}`, e);
-    }
-    for (const [r, c] of maxWeightMatching(weights)) chosen.push(edgeAt.get(`${rows[r]} ${columns[c]}`)!);
-  }
-  return chosen.sort((a, b) => a.first - b.first);
 }
