@@ -1,3 +1,5 @@
+import { MinHeap } from './minHeap.ts';
+
 /** A candidate pair between row `row` and column `column`, worth `weight` (> 0). */
 export interface WeightedEdge {
   row: number;
@@ -5,74 +7,20 @@ export interface WeightedEdge {
   weight: number;
 }
 
-/** A binary min-heap of (key, value) pairs with lazy deletion by the caller. */
-class MinHeap {
-  private keys: number[] = [];
-  private values: number[] = [];
-  get size() {
-    return this.keys.length;
-  }
-  clear() {
-    this.keys.length = 0;
-    this.values.length = 0;
-  }
-  push(key: number, value: number) {
-    const keys = this.keys;
-    const values = this.values;
-    let i = keys.length;
-    keys.push(key);
-    values.push(value);
-    while (i > 0) {
-      const parent = (i - 1) >> 1;
-      if (keys[parent] <= key) break;
-      keys[i] = keys[parent];
-      values[i] = values[parent];
-      i = parent;
-    }
-    keys[i] = key;
-    values[i] = value;
-  }
-  /** Removes the smallest pair; returns its value, with its key in `lastKey`. */
-  pop(): number {
-    const keys = this.keys;
-    const values = this.values;
-    const topValue = values[0];
-    this.lastKey = keys[0];
-    const key = keys.pop()!;
-    const value = values.pop()!;
-    const n = keys.length;
-    if (n > 0) {
-      let i = 0;
-      for (;;) {
-        let child = 2 * i + 1;
-        if (child >= n) break;
-        if (child + 1 < n && keys[child + 1] < keys[child]) child++;
-        if (keys[child] >= key) break;
-        keys[i] = keys[child];
-        values[i] = values[child];
-        i = child;
-      }
-      keys[i] = key;
-      values[i] = value;
-    }
-    return topValue;
-  }
-  lastKey = 0;
-}
-
 /**
  * The one-to-one pairing of largest total weight over sparse candidate edges: the
  * Hungarian method (Kuhn 1955; Munkres 1957) in its shortest augmenting path form,
  * with Dijkstra's search over reduced costs (as in Jonker & Volgenant 1987), one
  * row at a time. Each row also gets a private "stay unmatched" column, so the
- * minimum-cost assignment of every row is the maximum-weight matching. Only edges are stored, so a large delineation whose
- * candidates chain into one big group still costs little memory and time.
+ * minimum-cost assignment of every row is the maximum-weight matching. Only edges
+ * are stored, so a large delineation whose candidates chain into one big group
+ * still costs little memory and time.
  * Returns the chosen edges, sorted by row.
  */
 export function maxWeightMatching<E extends WeightedEdge>(rowCount: number, columnCount: number, edges: readonly E[]): E[] {
   for (const e of edges) {
     if (!(e.weight > 0) || !Number.isFinite(e.weight)) throw new RangeError(`edge ${e.row}–${e.column} has weight ${e.weight}, expected a positive number`);
-    if (e.row < 0 || e.row >= rowCount || e.column < 0 || e.column >= columnCount) throw new RangeError(`edge ${e.row}–${e.column} lies outside ${rowCount} × ${columnCount}`);
+    if (!Number.isInteger(e.row) || !Number.isInteger(e.column) || e.row < 0 || e.row >= rowCount || e.column < 0 || e.column >= columnCount) throw new RangeError(`edge ${e.row}–${e.column} lies outside ${rowCount} × ${columnCount}`);
   }
   // Adjacency of rows (compressed): columns and costs of each row's edges.
   const start = new Int32Array(rowCount + 1);
