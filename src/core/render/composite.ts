@@ -4,7 +4,8 @@ export type BandValues = ArrayLike<number>;
 
 /**
  * Paints up to three stretched bands into RGBA bytes. One band gives grey; three give
- * red, green and blue. Pixels equal to noData in any band become transparent.
+ * red, green and blue. Pixels equal to noData, or NaN (no value), in any band become
+ * transparent.
  */
 export function compositeRgba(
   bands: BandValues[],
@@ -27,8 +28,9 @@ export function compositeRgba(
   }
   for (let i = 0, o = 3; i < pixelCount; i++, o += 4) {
     let opaque = 255;
-    if (noData !== null) {
-      for (const band of bands) if (band[i] === noData) opaque = 0;
+    for (const band of bands) {
+      const v = band[i];
+      if (v === noData || v !== v) opaque = 0;
     }
     out[o] = opaque;
   }
