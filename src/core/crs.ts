@@ -4,7 +4,7 @@ import proj4 from 'proj4';
 // below, from their EPSG parameters: WGS 84 / UTM zone N (EPSG:326NN north, 327NN
 // south), ETRS89 / UTM zone N (EPSG:258NN), OSGB36 / British National Grid (EPSG:27700,
 // with the 7-parameter OSGB36 → WGS 84 shift of EPSG transformation 1314, good to a few
-// metres). Names are the EPSG dataset's.
+// metres) and its geographic CRS OSGB36 (EPSG:4277). Names are the EPSG dataset's.
 
 export function utmZoneEpsg(zone: number, south: boolean): number {
   if (!Number.isInteger(zone) || zone < 1 || zone > 60) throw new RangeError(`UTM zone must be 1-60, got ${zone}`);
@@ -17,9 +17,8 @@ export function utmEpsgForLonLat(lon: number, lat: number): number {
   return utmZoneEpsg(zone, lat < 0);
 }
 
-const BNG =
-  '+proj=tmerc +lat_0=49 +lon_0=-2 +k=0.9996012717 +x_0=400000 +y_0=-100000 +ellps=airy ' +
-  '+towgs84=446.448,-125.157,542.06,0.15,0.247,0.842,-20.489 +units=m +no_defs';
+const OSGB36_TO_WGS84 = '+towgs84=446.448,-125.157,542.06,0.15,0.247,0.842,-20.489';
+const BNG = `+proj=tmerc +lat_0=49 +lon_0=-2 +k=0.9996012717 +x_0=400000 +y_0=-100000 +ellps=airy ${OSGB36_TO_WGS84} +units=m +no_defs`;
 
 function wgs84Utm(epsg: number): { zone: number; south: boolean } | null {
   if (epsg >= 32601 && epsg <= 32660) return { zone: epsg - 32600, south: false };
@@ -53,6 +52,10 @@ export function ensureEpsg(epsg: number): string | null {
     proj4.defs(name, BNG);
     return name;
   }
+  if (epsg === 4277) {
+    proj4.defs(name, `+proj=longlat +ellps=airy ${OSGB36_TO_WGS84} +no_defs`);
+    return name;
+  }
   return null;
 }
 
@@ -70,6 +73,7 @@ const names: Record<number, string> = {
   4326: 'WGS 84',
   4258: 'ETRS89',
   4269: 'NAD83',
+  4277: 'OSGB36',
   3857: 'WGS 84 / Pseudo-Mercator',
   27700: 'OSGB36 / British National Grid',
 };

@@ -1,5 +1,8 @@
 import type { BandArray, SampleType } from '../../../src/core/tiff/writeGeoTiff.ts';
 import type { ReadRange } from '../../../src/core/tiff/byteSource.ts';
+import { blockIndex, blockLayout } from '../../../src/core/tiff/blocks.ts';
+import { decodeTile } from '../../../src/core/tiff/decodeTile.ts';
+import type { TiffSummary } from '../../../src/core/tiff/inspectTiff.ts';
 
 /** A small seeded generator (mulberry32), so every test raster is the same each run. */
 export function seeded(seed: number): () => number {
@@ -50,4 +53,27 @@ export function memoryReader(bytes: Uint8Array): ReadRange & { calls: number; by
 
 export function arrayBufferOf(bytes: Uint8Array): ArrayBuffer {
   return bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;
+}
+
+/** Reads a whole band of a level through inspectTiff's block table and decodeTile. */
+export function readBand(bytes: Uint8Array, summary: TiffSummary, levelIndex: number, band: number): number[] {
+  const level = summary.levels[levelIndex];
+  const out = new Array<number>(level.width * level.height);
+  for (let by = 0; by < level.blocksDown; by++) {
+    for (let bx = 0; bx < level.blocksAcross; bx++) {
+      const index = blockIndex(summary, levelIndex, summary.planar === 2 ? band : 0, bx * level.blockWidth, by * level.blockHeight);
+      const layout = blockLayout(summary, levelIndex, index);
+      const start = level.offsets[index];
+      const values = decodeTile(bytes.subarray(start, start + level.byteCounts[index]), layout);
+      for (let r = 0; r < layout.height; r++) {
+        for (let c = 0; c < layout.width; c++) {
+          const x = bx * level.blockWidth + c;
+          const y = by * level.blockHeight + r;
+          if (x >= level.width || y >= level.height) continue;
+          out[y * level.width + x] = values[(r * layout.width + c) * layout.samples + (summary.planar === 2 ? 0 : band)];
+        }
+      }
+    }
+  }
+  return out;
 }

@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { blockIndex, blockLayout } from '../../../src/core/tiff/blocks.ts';
+import { blockLayout } from '../../../src/core/tiff/blocks.ts';
 import { decodeTile } from '../../../src/core/tiff/decodeTile.ts';
 import { TiffError } from '../../../src/core/tiff/errors.ts';
-import { inspectTiff, requireGeoreference, type TiffSummary } from '../../../src/core/tiff/inspectTiff.ts';
+import { inspectTiff, requireGeoreference } from '../../../src/core/tiff/inspectTiff.ts';
 import { FieldType, Tag } from '../../../src/core/tiff/tags.ts';
 import { serializeTiff, type IfdEntry } from '../../../src/core/tiff/tiffSerializer.ts';
 import { writeGeoTiff } from '../../../src/core/tiff/writeGeoTiff.ts';
-import { makeBands, memoryReader } from './helpers.ts';
+import { makeBands, memoryReader, readBand } from './helpers.ts';
 import { bombTiff, goodTiff, hugeTiff, longChainTiff, loopTiff, notTiff, plainTiff, truncatedTiff } from './hostile.ts';
 
 function inspect(bytes: Uint8Array, name = 'scene.tif', limits = {}) {
@@ -21,29 +21,6 @@ async function failure(promise: Promise<unknown>): Promise<TiffError> {
     return error as TiffError;
   }
   throw new Error('expected a TiffError');
-}
-
-/** Reads a whole band of a level through inspectTiff's block table and decodeTile. */
-function readBand(bytes: Uint8Array, summary: TiffSummary, levelIndex: number, band: number): number[] {
-  const level = summary.levels[levelIndex];
-  const out = new Array<number>(level.width * level.height);
-  for (let by = 0; by < level.blocksDown; by++) {
-    for (let bx = 0; bx < level.blocksAcross; bx++) {
-      const index = blockIndex(summary, levelIndex, summary.planar === 2 ? band : 0, bx * level.blockWidth, by * level.blockHeight);
-      const layout = blockLayout(summary, levelIndex, index);
-      const start = level.offsets[index];
-      const values = decodeTile(bytes.subarray(start, start + level.byteCounts[index]), layout);
-      for (let r = 0; r < layout.height; r++) {
-        for (let c = 0; c < layout.width; c++) {
-          const x = bx * level.blockWidth + c;
-          const y = by * level.blockHeight + r;
-          if (x >= level.width || y >= level.height) continue;
-          out[y * level.width + x] = values[(r * layout.width + c) * layout.samples + (summary.planar === 2 ? 0 : band)];
-        }
-      }
-    }
-  }
-  return out;
 }
 
 describe('inspectTiff on files the writer makes', () => {
