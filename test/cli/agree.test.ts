@@ -82,6 +82,9 @@ describe('fellfield agree --by id', () => {
     expect(doc.per_class.map((c: { class: string }) => c.class)).toEqual(doc.classes);
     expect(doc.explanations.kappa).toMatch(/0.484/);
     expect(doc.reason).toBeUndefined();
+    // The six off-diagonal pairs, for reconciliation.
+    expect(doc.disagreements).toHaveLength(6);
+    expect(doc.disagreements.every((d: { first: string; second: string }) => d.first !== d.second)).toBe(true);
   });
 
   it('gives the same kappa and the transposed matrix when the files are swapped', async () => {
@@ -101,6 +104,7 @@ describe('fellfield agree --by id', () => {
     expect(stdout).toMatch(/Cohen's kappa\s+0.484\s+Agreement beyond chance/);
     expect(stdout).toMatch(/95 % interval\s+\[0.214, 0.755\]/);
     expect(stdout).toMatch(/PABAK/);
+    expect(stdout).toMatch(/Disagreements \(6\), first file \/ second file\n {2}p\d+: abies \/ larix/);
   });
 
   it('reports kappa as null with a reason when both used one class only', async () => {
@@ -186,6 +190,19 @@ describe('fellfield agree --match iou', () => {
     const doc = JSON.parse((await run(lonLat('ll-a.geojson', 0), lonLat('ll-b.geojson', 0.2), '--match', 'iou', '--json')).stdout);
     expect(doc.delineation.matched).toBe(1);
     expect(doc.delineation.mean_iou).toBeCloseTo(0.8 / 1.2, 3);
+  });
+
+  it('reports figures as undefined, not an error, when no outline finds a partner', async () => {
+    const far = write('iou-far.geojson', [{ id: 'f1', species: 'larix', at: [500500, 5100500, 10] }]);
+    const { code, stdout } = await run(a, far, '--match', 'iou', '--json');
+    expect(code).toBe(0);
+    const doc = JSON.parse(stdout);
+    expect(doc.n).toBe(0);
+    expect(doc.kappa).toBeNull();
+    expect(doc.reason).toMatch(/no paired calls/);
+    expect(doc.delineation.matched).toBe(0);
+    expect(doc.delineation.mean_iou).toBeNull();
+    expect(doc.delineation.reasons.mean_iou).toMatch(/no pair of outlines reached IoU 0.5/);
   });
 
   it('prints the delineation block as text', async () => {

@@ -350,6 +350,8 @@ export const agree: Verb = {
         second: pathB,
         paired_by: byIou ? 'iou' : 'id',
         ...sheetJson(sheet),
+        // The patches to reconcile: each pair the two files call differently.
+        disagreements: pairs.filter((p) => p.first !== p.second).map((p) => ({ id: p.id, first: p.first, second: p.second })),
         ...(delineation ? { delineation: delineationJson(delineation.figures, delineation.matched) } : {}),
       }, null, 2));
       return 0;
@@ -358,6 +360,12 @@ export const agree: Verb = {
     const header = `Agreement of ${basename(pathA)} (rows) and ${basename(pathB)} (columns), ${how}: ${pairs.length} ${pairs.length === 1 ? 'patch' : 'patches'}`;
     const lines = sheetText(sheet, header);
     if (delineation) lines.push(...delineationText(delineation.figures));
+    const differing = pairs.filter((p) => p.first !== p.second);
+    if (differing.length) {
+      const shown = differing.slice(0, 10).map((p) => `  ${p.id}: ${p.first} / ${p.second}`);
+      const more = differing.length > 10 ? [`  … and ${differing.length - 10} more (all of them with --json)`] : [];
+      lines.push('', `Disagreements (${differing.length}), first file / second file`, ...shown, ...more);
+    }
     out.stdout(lines.join('\n'));
     return 0;
   },
