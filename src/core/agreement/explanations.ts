@@ -29,8 +29,9 @@ export function explainKappa(figures: CohenKappa, pabak: Figure, classCount: num
       `The two interpreters gave the same class to ${percent(po)} of the ${patches(figures.n)}.`),
     expected: said(figures.expected, (pe) =>
       `Two interpreters calling at random with these same class shares would agree on ${percent(pe)}.`),
-    kappa: said(figures.kappa, (k) =>
-      `Agreement beyond chance: ${fixed(k)} of the way from chance level (0) to perfect agreement (1); below 0 is worse than chance.`),
+    kappa: said(figures.kappa, (k) => k >= 0
+      ? `Agreement beyond chance: ${fixed(k)} of the way from chance level (0) to perfect agreement (1).`
+      : `Less agreement than chance would give (${fixed(k)}): 0 is chance level, 1 perfect agreement.`),
     standardError: said(figures.standardError, (se) =>
       `The uncertainty of kappa from having only ${patches(figures.n)}: about ±${fixed(se)} for one standard error.`),
     ci95: said(figures.ci95, ([low, high]) =>

@@ -18,6 +18,11 @@ describe('explanations', () => {
     for (const line of Object.values(e)) expect(line).not.toMatch(/\n|NaN|undefined/);
   });
 
+  it('say plainly when agreement is worse than chance', () => {
+    const m = matrixFromCounts(['a', 'b'], [[1, 4], [4, 1]]);
+    expect(explainKappa(cohenKappa(m), pabak(m), 2).kappa).toBe('Less agreement than chance would give (-0.600): 0 is chance level, 1 perfect agreement.');
+  });
+
   it('say why a figure is missing', () => {
     const m = confusionMatrix(['a'], ['a']);
     const e = explainKappa(cohenKappa(m), pabak(m), 1);
