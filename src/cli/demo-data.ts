@@ -1,13 +1,17 @@
 // `npm run demo:data`: writes the demo site (a generated scene of a fictional basin)
 // into demo/ at the repository root, or into --out DIR. Files are written under a
 // temporary name and renamed into place, so a crash never leaves half a file.
+// Each date is rendered and encoded in its own worker thread (this same file), while
+// the main thread makes the field survey and truth and relays progress: the dates
+// share nothing but the seed, and the scene is the same in every thread.
 
 import { mkdirSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { parseArgs } from 'node:util';
-import { demoFiles } from '../core/demo/files.ts';
-import { FULL_SIZE } from '../core/demo/scene.ts';
+import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
+import { demoFiles, demoRasterFiles, type DemoFile } from '../core/demo/files.ts';
+import { DATE_KEYS, FULL_SIZE, type DateKey } from '../core/demo/scene.ts';
 import { synthesizeDemo } from '../core/demo/synthesize.ts';
 import { InputError } from './errors.ts';
 
@@ -19,6 +23,45 @@ export interface DemoSiteOptions {
   seed?: number;
   size?: number;
   log?: (line: string) => void;
+  /** Render each date in a worker thread (default true); falls back to this thread. */
+  parallel?: boolean;
+}
+
+interface DateJob {
+  demoDate: DateKey;
+  seed: number;
+  size: number;
+}
+
+type WorkerMessage = { kind: 'progress'; line: string } | { kind: 'files'; files: DemoFile[] };
+
+/** Renders and encodes one date in a worker; resolves to its two files. */
+function dateInWorker(job: DateJob, log: (line: string) => void): Promise<DemoFile[]> {
+  return new Promise((resolveFiles, reject) => {
+    // The worker starts as a tiny script that registers the TypeScript loader (as
+    // bin/fellfield.mjs does) and then imports this file.
+    const bootstrap = `import(${JSON.stringify(import.meta.resolve('tsx/esm/api'))})
+      .then(({ register }) => { register(); return import(${JSON.stringify(import.meta.url)}); })`;
+    const worker = new Worker(bootstrap, { eval: true, workerData: job });
+    let files: DemoFile[] | null = null;
+    worker.on('message', (message: WorkerMessage) => {
+      if (message.kind === 'progress') log(message.line);
+      else files = message.files.map((f) => ({ ...f, bytes: new Uint8Array(f.bytes) }));
+    });
+    worker.once('error', reject);
+    worker.once('exit', (code) => {
+      if (files) resolveFiles(files);
+      else reject(new Error(`the ${job.demoDate}-date worker stopped (exit code ${code}) before finishing`));
+    });
+  });
+}
+
+/** The worker's side: the scene with one date rendered, encoded, sent back. */
+function runDateJob(job: DateJob): void {
+  const say = (line: string) => parentPort!.postMessage({ kind: 'progress', line } satisfies WorkerMessage);
+  const scene = synthesizeDemo({ seed: job.seed, size: job.size, dates: [job.demoDate], onProgress: (line) => { if (line.startsWith('rendering')) say(line); } });
+  const files = demoRasterFiles(scene, job.demoDate, (name) => say(`encoding ${name}`));
+  parentPort!.postMessage({ kind: 'files', files } satisfies WorkerMessage, files.map((f) => f.bytes.buffer as ArrayBuffer));
 }
 
 const usage = `npm run demo:data -- [--out DIR] [--seed N] [--size PIXELS] [--quiet]
@@ -51,8 +94,23 @@ export async function writeDemoSite(options: DemoSiteOptions = {}): Promise<{ di
     throw new InputError(`cannot create the output folder ${dir}: ${(error as NodeJS.ErrnoException).code ?? (error as Error).message}`);
   }
   log(`${stamp()}  demo site, seed ${seed}, into ${dir}`);
-  const scene = synthesizeDemo({ seed, size: options.size ?? FULL_SIZE, onProgress: (line) => log(`${stamp()}  ${line}`) });
-  const files = await demoFiles(scene, (name) => log(`${stamp()}  encoding ${name}`));
+  const size = options.size ?? FULL_SIZE;
+  const say = (line: string) => log(`${stamp()}  ${line}`);
+  const parallel = options.parallel ?? true;
+  const rendering = DATE_KEYS.map((key) => (parallel
+    ? dateInWorker({ demoDate: key, seed, size }, say).catch((error: Error) => {
+      say(`${key} date in the main thread instead (worker: ${error.message})`);
+      return null;
+    })
+    : Promise.resolve(null)));
+  // The main thread's own copy of the scene, without images, for the survey and truth.
+  const scene = synthesizeDemo({ seed, size, dates: [], onProgress: say });
+  const prepared: Partial<Record<DateKey, DemoFile[]>> = {};
+  for (const [i, key] of DATE_KEYS.entries()) {
+    prepared[key] = (await rendering[i])
+      ?? demoRasterFiles(synthesizeDemo({ seed, size, dates: [key], onProgress: say }), key, (name) => say(`encoding ${name}`));
+  }
+  const files = await demoFiles(scene, () => {}, prepared);
   const names: string[] = [];
   for (const file of files) {
     const target = join(dir, file.name);
@@ -107,6 +165,8 @@ export async function runDemoData(argv: string[]): Promise<number> {
   }
 }
 
-if (process.argv[1] && import.meta.url === pathToFileURL(resolve(process.argv[1])).href) {
+if (!isMainThread && (workerData as DateJob | undefined)?.demoDate) {
+  runDateJob(workerData as DateJob);
+} else if (isMainThread && process.argv[1] && import.meta.url === pathToFileURL(resolve(process.argv[1])).href) {
   process.exitCode = await runDemoData(process.argv.slice(2));
 }

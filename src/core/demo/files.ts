@@ -42,9 +42,11 @@ export function layeredJson(value: unknown, depth = 2, indent = ''): string {
 
 const text = (value: unknown, depth = 2) => new TextEncoder().encode(`${layeredJson(value, depth)}\n`);
 
-function rasterFiles(scene: DemoScene, key: DateKey, onFile: (name: string) => void): DemoFile[] {
+/** The two GeoTIFFs of one date; the scene must have that date rendered. */
+export function demoRasterFiles(scene: DemoScene, key: DateKey, onFile: (name: string) => void = () => {}): DemoFile[] {
   const { grid } = scene;
   const image = scene.images[key];
+  if (!image) throw new Error(`the ${key} date of the demo scene was not rendered`);
   const suffix = key === 'early' ? '' : '-late';
   const date = SCENE_DATES[key].date;
   const common = { sampleType: 'uint16' as const, epsg: DEMO_EPSG, origin: [grid.originX, grid.originY] as [number, number], tileSize: TILE_SIZE, compression: 'deflate' as const, predictor: true };
@@ -81,11 +83,16 @@ async function sha256(bytes: Uint8Array): Promise<string> {
   return Array.from(new Uint8Array(digest), (b) => b.toString(16).padStart(2, '0')).join('');
 }
 
-/** Encodes the scene; `onFile` hears each file's name as it is made. */
-export async function demoFiles(scene: DemoScene, onFile: (name: string) => void = () => {}): Promise<DemoFile[]> {
+/** Encodes the scene; `onFile` hears each file's name as it is made. Raster files of a
+ * date made elsewhere (another worker) can be handed in as `prepared`. */
+export async function demoFiles(
+  scene: DemoScene,
+  onFile: (name: string) => void = () => {},
+  prepared: Partial<Record<DateKey, DemoFile[]>> = {},
+): Promise<DemoFile[]> {
   const files: DemoFile[] = [];
   for (const key of DATE_KEYS) {
-    files.push(...rasterFiles(scene, key, onFile));
+    files.push(...(prepared[key] ?? demoRasterFiles(scene, key, onFile)));
   }
   files.push({ name: 'field.geojson', role: 'field polygons (GPS, with a systematic shift)', bytes: text(scene.field, 3), epsg: 4326 });
   files.push({ name: 'truth.json', role: 'truth: species per crown, the true offset, pure-pixel guarantee', bytes: text(scene.truth), epsg: DEMO_EPSG });

@@ -18,6 +18,9 @@ export interface DemoOptions {
   size?: number;
   /** Progress lines for the user. */
   onProgress?: (line: string) => void;
+  /** Dates to render (default both); the rest of the scene is the same whatever is chosen,
+   * so two workers can each render one date of the same scene. */
+  dates?: readonly DateKey[];
 }
 
 export interface DemoScene {
@@ -31,7 +34,8 @@ export interface DemoScene {
   survey: FieldSurvey;
   field: FieldCollection;
   truth: Truth;
-  images: Record<DateKey, RenderedDate>;
+  /** Rendered images of the dates asked for. */
+  images: Partial<Record<DateKey, RenderedDate>>;
 }
 
 export const RARE_SPECIES = 'RHPE';
@@ -54,8 +58,8 @@ export function synthesizeDemo(options: DemoOptions): DemoScene {
   say(`field polygons: ${survey.polygons.length} walked`);
 
   const renderSeed = root.fork('render').uint32();
-  const images = {} as Record<DateKey, RenderedDate>;
-  for (const key of DATE_KEYS) {
+  const images: Partial<Record<DateKey, RenderedDate>> = {};
+  for (const key of DATE_KEYS.filter((k) => !options.dates || options.dates.includes(k))) {
     const date = SCENE_DATES[key];
     const shadow = shadowMask(grid, crowns, date);
     let reported = 0;
