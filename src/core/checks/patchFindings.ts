@@ -2,7 +2,7 @@ import OverlayOp from 'jsts/org/locationtech/jts/operation/overlay/OverlayOp.js'
 import { fromJsts, jstsPolygon } from '../geometry/jstsBridge.ts';
 import { multiPolygonArea } from '../geometry/measure.ts';
 import { countPurePixels } from '../geometry/purePixels.ts';
-import { gridExtent } from '../geometry/rasterGrid.ts';
+import { gridExtent, type RasterGrid } from '../geometry/rasterGrid.ts';
 import type { Extent, MultiPolygonRings } from '../geometry/types.ts';
 import type { Finding } from './findings.ts';
 import { jstsOf, type PreparedPatch } from './preparedPatch.ts';
@@ -86,7 +86,7 @@ function undersizedFinding(patch: PreparedPatch, settings: CheckSettings, scene:
   const details: Record<string, number> = { areaM2: round(area), minAreaM2: round(minArea) };
   if (area < minArea) {
     why = `covers ${round(area, 2)} m², under ${settings.minAreaInMsPixels} multispectral pixels (${round(minArea, 2)} m²)`;
-  } else if (scene.ms && settings.minPurePixels > 0) {
+  } else if (scene.ms && settings.minPurePixels > 0 && overlapsGrid(patch, scene.ms)) {
     const pure = countPurePixels(patch.shape!, scene.ms, settings.minPurePixels);
     details.purePixels = pure;
     details.minPurePixels = settings.minPurePixels;
@@ -105,6 +105,13 @@ function undersizedFinding(patch: PreparedPatch, settings: CheckSettings, scene:
     fix: { action: 'enlarge', target: input.id, text: `redraw patch ${input.id} to cover whole multispectral pixels, or leave it out of training` },
     details,
   };
+}
+
+/** Whether the patch's box meets the grid at all: off the grid, off-image says it all. */
+function overlapsGrid(patch: PreparedPatch, grid: RasterGrid): boolean {
+  const g = gridExtent(grid);
+  const e = patch.extent!;
+  return e[0] < g[2] && e[2] > g[0] && e[1] < g[3] && e[3] > g[1];
 }
 
 /** The rectangle every given raster covers (their intersection), or null with no scene. */
