@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { promisify } from 'node:util';
 import { afterAll, describe, expect, it } from 'vitest';
+import { writeDemoSite } from '../../src/cli/demo-data.ts';
 
 // `npm run demo:data` as a user runs it: progress lines, files renamed into place, and
 // one clear line with exit code 2 on bad options or an unwritable folder.
@@ -35,6 +36,13 @@ describe('demo:data', () => {
     expect(result.stdout).toMatch(/wrote pan\.tif/);
     expect(readdirSync(out).sort()).toEqual(['field.geojson', 'manifest.json', 'ms-late.tif', 'ms.tif', 'pan-late.tif', 'pan.tif', 'roster.json', 'truth.json']);
     expect(JSON.parse(readFileSync(join(out, 'truth.json'), 'utf8')).seed).toBe(3);
+
+    // One thread (the fallback when workers cannot start) writes the very same bytes.
+    const single = join(work, 'single');
+    await writeDemoSite({ out: single, seed: 3, size: 256, parallel: false });
+    for (const name of readdirSync(out)) {
+      expect(readFileSync(join(single, name)).equals(readFileSync(join(out, name))), name).toBe(true);
+    }
   }, 120_000);
 
   it.each([
