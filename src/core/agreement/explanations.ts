@@ -47,8 +47,9 @@ export function explainSpecific(name: string, specific: Figure): string {
 }
 
 export function explainFleiss(figures: FleissKappa): string {
-  return said(figures.kappa, (k) =>
-    `Agreement beyond chance among all ${figures.raters} interpreters on ${patches(figures.subjects)}: ${fixed(k)} (0 chance, 1 perfect).`);
+  return said(figures.kappa, (k) => k >= 0
+    ? `Agreement beyond chance among all ${figures.raters} interpreters on ${patches(figures.subjects)}: ${fixed(k)} (0 chance, 1 perfect).`
+    : `Less agreement than chance among the ${figures.raters} interpreters on ${patches(figures.subjects)} (${fixed(k)}; 0 chance, 1 perfect).`);
 }
 
 export interface DelineationExplanations {
