@@ -1,118 +1,198 @@
 import { blockIndex, blockLayout } from '../core/tiff/blocks.ts';
 import type { TiffSummary } from '../core/tiff/inspectTiff.ts';
 import type { StretchLimits } from '../core/render/stretch.ts';
+import { percentileOfSorted, type BandSample } from '../core/render/bandSample.ts';
 import type { FileRef, Platform } from '../platform/types.ts';
 import { ImageryError, inspectInWorker } from './inspectInWorker.ts';
-import type { EncodedTile, RenderRequest, RenderResult } from './render.worker.ts';
-import type { WorkerPool } from './WorkerPool.ts';
+import { uniqueBuffers, type EncodedTile, type JobRunner, type PixelBox, type PlacedTile, type SampleReply, type TileImage } from './renderJobs.ts';
 
-export type RenderPool = WorkerPool<RenderRequest, RenderResult>;
+/** The render pool (a WorkerPool of render workers) or any other runner of render jobs. */
+export type RenderPool = JobRunner;
+
+/** What a raster needs of the outside world: byte ranges of its file. */
+export type RangeReader = Pick<Platform, 'readRange'>;
+
+/** Tile size of the view grid of striped files (their strips are cut into these). */
+const STRIP_TILE = 256;
 
 /**
- * One GeoTIFF opened through the platform bridge: its summary, and tiles read by byte
- * range and decoded in the shared render pool. Nothing reads the whole file.
+ * One GeoTIFF opened through the platform bridge (or any range reader): its summary,
+ * and windows of it read by byte range and decoded in the shared render pool. Nothing
+ * reads the whole file; tiles cover only the bands a view shows, at the level it needs.
  */
 export class Raster {
   readonly file: FileRef;
   readonly summary: TiffSummary;
-  #platform: Platform;
-  #pool: RenderPool;
-  #limits = new Map<string, Promise<{ min: number; max: number }>>();
+  readonly pool: RenderPool;
+  #reader: RangeReader;
+  #samples = new Map<string, Promise<BandSample>>();
 
-  private constructor(platform: Platform, pool: RenderPool, file: FileRef, summary: TiffSummary) {
-    this.#platform = platform;
-    this.#pool = pool;
+  private constructor(reader: RangeReader, pool: RenderPool, file: FileRef, summary: TiffSummary) {
+    this.#reader = reader;
+    this.pool = pool;
     this.file = file;
     this.summary = summary;
   }
 
-  static async open(platform: Platform, pool: RenderPool, file: FileRef, signal?: AbortSignal): Promise<Raster> {
-    const summary = await inspectInWorker(platform, file, { signal });
+  static async open(reader: RangeReader, pool: RenderPool, file: FileRef, signal?: AbortSignal): Promise<Raster> {
+    const summary = await inspectInWorker(reader, file, { signal });
     if (!summary.decodable) {
       throw new ImageryError(`${file.name}: ${summary.compression} compression of ${summary.dtype} data cannot be decoded yet`, 'unsupported');
     }
-    if (!summary.tiled) {
-      throw new ImageryError(`${file.name}: striped files are not shown yet; save it as a tiled GeoTIFF (e.g. gdal_translate -co TILED=YES)`, 'unsupported');
-    }
-    return new Raster(platform, pool, file, summary);
+    return Raster.fromSummary(reader, pool, file, summary);
+  }
+
+  /** A raster from a summary read elsewhere (a worker, a test, the command line). */
+  static fromSummary(reader: RangeReader, pool: RenderPool, file: FileRef, summary: TiffSummary): Raster {
+    return new Raster(reader, pool, file, summary);
   }
 
   get levelCount(): number {
     return this.summary.levels.length;
   }
 
-  /** The compressed block of one band at a level, fetched by its byte range. */
-  async encodedTile(level: number, band: number, bx: number, by: number, signal?: AbortSignal): Promise<EncodedTile> {
+  /** The view grid's tile size at a level: the file's own tiles, or 256 x 256 over strips. */
+  tileSize(level: number): [number, number] {
     const info = this.summary.levels[level];
-    const index = blockIndex(this.summary, level, band, bx * info.blockWidth, by * info.blockHeight);
+    return info.tiled ? [info.blockWidth, info.blockHeight] : [STRIP_TILE, STRIP_TILE];
+  }
+
+  /** Ground size of one pixel at a level (x). */
+  resolution(level: number): number {
+    return (this.summary.pixelSize[0] * this.summary.width) / this.summary.levels[level].width;
+  }
+
+  /** The pixel window of view-grid tile (bx, by) at a level. */
+  tileBox(level: number, bx: number, by: number): PixelBox {
+    const [tw, th] = this.tileSize(level);
+    return { x0: bx * tw, y0: by * th, x1: (bx + 1) * tw, y1: (by + 1) * th };
+  }
+
+  /** The compressed block of one band holding pixel (col, row) of a level, fetched by its byte range. */
+  async encodedBlock(level: number, band: number, col: number, row: number, signal?: AbortSignal): Promise<PlacedTile> {
+    const info = this.summary.levels[level];
+    const index = blockIndex(this.summary, level, band, col, row);
     const offset = info.offsets[index];
     const length = info.byteCounts[index];
     const layout = blockLayout(this.summary, level, index);
     const sample = this.summary.planar === 2 ? 0 : band;
-    if (length === 0) return { bytes: new ArrayBuffer(0), layout, sample };
-    const bytes = await this.#platform.readRange(this.file, offset, length, signal);
+    const x = Math.floor(col / info.blockWidth) * info.blockWidth;
+    const y = Math.floor(row / info.blockHeight) * info.blockHeight;
+    const place = { x, y, levelWidth: info.width, levelHeight: info.height };
+    if (length === 0) return { bytes: new ArrayBuffer(0), layout, sample, ...place };
+    const bytes = await this.#reader.readRange(this.file, offset, length, signal);
     if (bytes.length < length) {
       throw new ImageryError(`${this.file.name}: ${layout.blockName} is cut short (${bytes.length} of ${length} bytes)`, 'truncated');
     }
     // A private copy, so it can be transferred to the worker.
     const own = bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength ? bytes : bytes.slice();
-    return { bytes: own.buffer as ArrayBuffer, layout, sample };
+    return { bytes: own.buffer as ArrayBuffer, layout, sample, ...place };
+  }
+
+  /** The blocks of one band that cover a window of a level (clipped to the level). */
+  async blocksCovering(level: number, band: number, box: PixelBox, signal?: AbortSignal): Promise<PlacedTile[]> {
+    const info = this.summary.levels[level];
+    const x0 = Math.max(0, box.x0), y0 = Math.max(0, box.y0);
+    const x1 = Math.min(info.width, box.x1), y1 = Math.min(info.height, box.y1);
+    if (x1 <= x0 || y1 <= y0) return [];
+    const reads: Promise<PlacedTile>[] = [];
+    for (let by = Math.floor(y0 / info.blockHeight); by * info.blockHeight < y1; by++) {
+      for (let bx = Math.floor(x0 / info.blockWidth); bx * info.blockWidth < x1; bx++) {
+        reads.push(this.encodedBlock(level, band, bx * info.blockWidth, by * info.blockHeight, signal));
+      }
+    }
+    return Promise.all(reads);
+  }
+
+  /** Frame of a view-grid tile: its box and the part of it inside the image. */
+  tileFrame(level: number, bx: number, by: number) {
+    const info = this.summary.levels[level];
+    const box = this.tileBox(level, bx, by);
+    return {
+      box,
+      validWidth: Math.max(0, Math.min(box.x1, info.width) - box.x0),
+      validHeight: Math.max(0, Math.min(box.y1, info.height) - box.y0),
+      noData: this.summary.nodata,
+    };
   }
 
   /** A finished RGBA tile: one band as grey, or three as red, green, blue. */
-  async renderTile(level: number, bx: number, by: number, bands: number[], limits: StretchLimits[], signal?: AbortSignal): Promise<ImageBitmap> {
-    const info = this.summary.levels[level];
-    const tiles = await Promise.all(bands.map((band) => this.encodedTile(level, band, bx, by, signal)));
-    const result = await this.#pool.run({
-      payload: {
-        kind: 'render',
-        tiles,
-        limits,
-        noData: this.summary.nodata,
-        validWidth: Math.min(info.blockWidth, info.width - bx * info.blockWidth),
-        validHeight: Math.min(info.blockHeight, info.height - by * info.blockHeight),
-      },
+  async renderTile(level: number, bx: number, by: number, bands: number[], limits: StretchLimits[], signal?: AbortSignal): Promise<TileImage> {
+    const frame = this.tileFrame(level, bx, by);
+    const tiles = await Promise.all(bands.map((band) => this.blocksCovering(level, band, frame.box, signal)));
+    return (await this.pool.run({
+      payload: { kind: 'bands', ...frame, bands: tiles, limits },
       transfer: uniqueBuffers(tiles),
       signal,
-    });
-    return result as ImageBitmap;
+    })) as TileImage;
+  }
+
+  /** A finished tile of the normalised difference of bands a and b, coloured by the ramp. */
+  async renderIndexTile(
+    level: number, bx: number, by: number, a: number, b: number,
+    range: { low: number; high: number; threshold: number | null }, signal?: AbortSignal,
+  ): Promise<TileImage> {
+    const frame = this.tileFrame(level, bx, by);
+    const [ta, tb] = await Promise.all([a, b].map((band) => this.blocksCovering(level, band, frame.box, signal)));
+    return (await this.pool.run({
+      payload: { kind: 'index', ...frame, bands: [ta, tb], ...range },
+      transfer: uniqueBuffers([ta, tb]),
+      signal,
+    })) as TileImage;
+  }
+
+  /** Every listed band's values over a window of a level, NaN outside the image. */
+  async readWindow(level: number, box: PixelBox, bands: number[], signal?: AbortSignal): Promise<Float32Array[]> {
+    const tiles = await Promise.all(bands.map((band) => this.blocksCovering(level, band, box, signal)));
+    return (await this.pool.run({ payload: { kind: 'window', bands: tiles, box }, transfer: uniqueBuffers(tiles), signal })) as Float32Array[];
+  }
+
+  /** The raw values of every band at one full-resolution pixel. */
+  async pixelValues(col: number, row: number, signal?: AbortSignal): Promise<number[]> {
+    const bands = Array.from({ length: this.summary.bands }, (_, i) => i);
+    const values = await this.readWindow(0, { x0: col, y0: row, x1: col + 1, y1: row + 1 }, bands, signal);
+    return values.map((v) => v[0]);
   }
 
   /**
-   * Percentile limits of one band, from the smallest level that still has enough
-   * pixels (an overview, never the full image of a large scene).
+   * A band's sorted sample: over a window of a level when given ("what is on screen"),
+   * else over the smallest level that still has enough pixels (an overview, never the
+   * full image of a large scene). Whole-level samples are kept.
    */
-  bandLimits(band: number, low = 2, high = 98, signal?: AbortSignal): Promise<{ min: number; max: number }> {
-    const key = `${band}:${low}:${high}`;
-    let limits = this.#limits.get(key);
-    if (!limits) {
-      limits = this.#computeLimits(band, low, high, signal);
-      limits.catch(() => this.#limits.delete(key));
-      this.#limits.set(key, limits);
+  sample(band: number, where?: { level: number; box: PixelBox }, signal?: AbortSignal): Promise<BandSample> {
+    if (where) return this.#sample(band, where.level, where.box, signal);
+    const key = `${band}`;
+    let sample = this.#samples.get(key);
+    if (!sample) {
+      const level = this.statsLevel();
+      const info = this.summary.levels[level];
+      sample = this.#sample(band, level, { x0: 0, y0: 0, x1: info.width, y1: info.height }, signal);
+      sample.catch(() => this.#samples.delete(key));
+      this.#samples.set(key, sample);
     }
-    return limits;
+    return sample;
   }
 
-  async #computeLimits(band: number, low: number, high: number, signal?: AbortSignal): Promise<{ min: number; max: number }> {
-    const level = this.#statsLevel();
-    const info = this.summary.levels[level];
-    const tiles: (EncodedTile & { x: number; y: number })[] = [];
-    for (let by = 0; by < info.blocksDown; by++) {
-      for (let bx = 0; bx < info.blocksAcross; bx++) {
-        const tile = await this.encodedTile(level, band, bx, by, signal);
-        tiles.push({ ...tile, x: bx * info.blockWidth, y: by * info.blockHeight });
-      }
-    }
-    const result = await this.#pool.run({
-      payload: { kind: 'stats', tiles, width: info.width, height: info.height, noData: this.summary.nodata, low, high },
+  async #sample(band: number, level: number, box: PixelBox, signal?: AbortSignal): Promise<BandSample> {
+    const tiles = await this.blocksCovering(level, band, box, signal);
+    return (await this.pool.run({
+      payload: { kind: 'sample', tiles, box, noData: this.summary.nodata, maxCount: 1 << 18 },
       transfer: uniqueBuffers(tiles),
       signal,
-    });
-    return result as { min: number; max: number };
+    })) as SampleReply;
   }
 
-  #statsLevel(): number {
-    // The smallest level with at least 256 x 256 pixels, or the largest there is.
+  /** Percentile limits of one band (see sample). */
+  async bandLimits(band: number, low = 2, high = 98, signal?: AbortSignal): Promise<{ min: number; max: number }> {
+    const { sorted } = await this.sample(band, undefined, signal);
+    if (sorted.length === 0) return { min: 0, max: 1 };
+    const min = percentileOfSorted(sorted, low);
+    const max = percentileOfSorted(sorted, high);
+    return { min, max: max > min ? max : min + 1 };
+  }
+
+  /** The smallest level with at least 256 x 256 pixels, or the largest there is. */
+  statsLevel(): number {
     let chosen = 0;
     for (let i = 0; i < this.summary.levels.length; i++) {
       const { width, height } = this.summary.levels[i];
@@ -120,8 +200,13 @@ export class Raster {
     }
     return chosen;
   }
+
+  /** The coarsest level whose pixels are no larger than `resolution` (level 0 when even it is coarser). */
+  levelFor(resolution: number): number {
+    let chosen = 0;
+    for (let i = 0; i < this.levelCount; i++) if (this.resolution(i) <= resolution * 1.0001) chosen = i;
+    return chosen;
+  }
 }
 
-function uniqueBuffers(tiles: EncodedTile[]): ArrayBuffer[] {
-  return [...new Set(tiles.map((t) => t.bytes).filter((b) => b.byteLength > 0))];
-}
+export type { EncodedTile };

@@ -16,7 +16,7 @@ export class ImageryError extends Error {
  * hostile file that makes parsing spin is cut off after `timeoutMs`.
  */
 export function inspectInWorker(
-  platform: Platform,
+  platform: Pick<Platform, 'readRange'>,
   file: FileRef,
   options: { timeoutMs?: number; signal?: AbortSignal } = {},
 ): Promise<TiffSummary> {

@@ -1,0 +1,104 @@
+import { decodeTile } from '../core/tiff/decodeTile.ts';
+import type { SampleArray } from '../core/tiff/tags.ts';
+import { compositeRgba } from '../core/render/composite.ts';
+import { normalisedDifference } from '../core/render/indices.ts';
+import { colourise, rampTable, vegetationRamp } from '../core/render/colourRamp.ts';
+import { thresholdMask } from '../core/render/thresholdMask.ts';
+import { sharpen, upsampleNearest } from '../core/render/pansharpen.ts';
+import { bandSample } from '../core/render/bandSample.ts';
+import type { EncodedTile, PixelBox, PlacedTile, RenderRequest, SampleReply } from './renderJobs.ts';
+
+// What the render worker does with each job, as plain functions over bytes (no DOM), so
+// the same code runs in the worker, in tests and in benchmarks.
+
+const ramp = rampTable(vegetationRamp);
+
+/** One band of a block as its own array: decoded, and taken out of interleaved samples. */
+export function decodeBand(tile: EncodedTile): SampleArray {
+  const { width, height, samples } = tile.layout;
+  if (tile.bytes.byteLength === 0) return new Uint16Array(width * height);
+  const data = decodeTile(new Uint8Array(tile.bytes), tile.layout);
+  if (samples === 1) return data;
+  const band = new (data.constructor as new (n: number) => SampleArray)(width * height);
+  for (let i = 0, j = tile.sample; i < band.length; i++, j += samples) band[i] = data[j];
+  return band;
+}
+
+/** The values of a window of a level, gathered from the blocks that cover it; NaN where none does. */
+export function assembleWindow(tiles: PlacedTile[], box: PixelBox): Float32Array {
+  const width = box.x1 - box.x0;
+  const height = box.y1 - box.y0;
+  const out = new Float32Array(width * height).fill(NaN);
+  for (const tile of tiles) {
+    const data = decodeBand(tile);
+    const tw = tile.layout.width;
+    const cx0 = Math.max(box.x0, tile.x), cx1 = Math.min(box.x1, tile.x + tw, tile.levelWidth);
+    const cy0 = Math.max(box.y0, tile.y), cy1 = Math.min(box.y1, tile.y + tile.layout.height, tile.levelHeight);
+    for (let y = cy0; y < cy1; y++) {
+      const from = (y - tile.y) * tw - tile.x;
+      const to = (y - box.y0) * width - box.x0;
+      for (let x = cx0; x < cx1; x++) out[to + x] = data[from + x];
+    }
+  }
+  return out;
+}
+
+/**
+ * A band over a box: when one block is exactly the box (a tiled file's own tile), its
+ * decoded array as it is (integer data keeps its lookup-table stretch); else assembled.
+ */
+export function bandOver(tiles: PlacedTile[], box: PixelBox): SampleArray | Float32Array {
+  const only = tiles.length === 1 ? tiles[0] : null;
+  if (only && only.x === box.x0 && only.y === box.y0 && only.layout.width === box.x1 - box.x0 && only.layout.height === box.y1 - box.y0) {
+    return decodeBand(only);
+  }
+  return assembleWindow(tiles, box);
+}
+
+/** The finished RGBA bytes of a tile job. */
+export function composeTile(request: Exclude<RenderRequest, { kind: 'sample' | 'window' }>): { rgba: Uint8ClampedArray<ArrayBuffer>; width: number; height: number } {
+  const width = request.box.x1 - request.box.x0;
+  const height = request.box.y1 - request.box.y0;
+  let rgba: Uint8ClampedArray<ArrayBuffer>;
+  if (request.kind === 'bands') {
+    rgba = compositeRgba(request.bands.map((tiles) => bandOver(tiles, request.box)), request.limits, width * height, request.noData);
+  } else if (request.kind === 'index') {
+    const [a, b] = request.bands.map((tiles) => bandOver(tiles, request.box));
+    const index = normalisedDifference(a, b, request.noData);
+    const mask = request.threshold === null ? null : thresholdMask(index, request.threshold);
+    rgba = colourise(index, ramp, request.low, request.high, mask);
+  } else {
+    const pan = bandOver(request.pan, request.box);
+    const { msBox } = request;
+    const bw = msBox.x1 - msBox.x0, bh = msBox.y1 - msBox.y0;
+    const bands = request.bands.map((tiles) => {
+      const window = assembleWindow(tiles, msBox);
+      return upsampleNearest(window, bw, bh, width, height, request.x0 - msBox.x0, request.y0 - msBox.y0, request.step);
+    });
+    const sharpened = sharpen(request.method, { pan, bands, gain: request.gain, noData: request.noData });
+    rgba = compositeRgba(sharpened, request.limits, width * height, null);
+    // No multispectral pixel (outside its footprint, or its no-data) means no colour.
+    const msNoData = request.msNoData;
+    for (let i = 0; i < width * height; i++) {
+      const v = bands[0][i];
+      if (Number.isNaN(v) || Number.isNaN(sharpened[0][i]) || v === msNoData) rgba[i * 4 + 3] = 0;
+    }
+  }
+  if (request.validWidth < width || request.validHeight < height) {
+    for (let y = 0; y < height; y++) {
+      for (let x = y < request.validHeight ? request.validWidth : 0; x < width; x++) rgba[(y * width + x) * 4 + 3] = 0;
+    }
+  }
+  return { rgba, width, height };
+}
+
+/** A band's sorted sample over a window, for its stretch and histogram. */
+export function sampleWindow(request: Extract<RenderRequest, { kind: 'sample' }>): SampleReply {
+  const values = assembleWindow(request.tiles, request.box);
+  return bandSample(values, request.noData, request.maxCount);
+}
+
+/** Every band's values over a window (the inspector's pixel, a patch's spectrum). */
+export function readWindow(request: Extract<RenderRequest, { kind: 'window' }>): Float32Array[] {
+  return request.bands.map((tiles) => assembleWindow(tiles, request.box));
+}
