@@ -1,0 +1,53 @@
+// Storage failures told in words a user can act on. IndexedDB reports a full disk or a
+// used-up quota as QuotaExceededError, but inside a transaction it often surfaces as an
+// AbortError whose `inner` (Dexie) or `cause` carries the quota error, so we look down
+// the chain.
+
+export class StorageError extends Error {
+  constructor(
+    message: string,
+    readonly kind: 'full' | 'stale' | 'unavailable' | 'other',
+    readonly original?: unknown,
+  ) {
+    super(message);
+    this.name = 'StorageError';
+  }
+}
+
+function chain(error: unknown): { name?: string; message?: string }[] {
+  const seen: { name?: string; message?: string }[] = [];
+  let current = error as { name?: string; message?: string; inner?: unknown; cause?: unknown } | undefined;
+  while (current && typeof current === 'object' && seen.length < 8) {
+    seen.push(current);
+    current = (current.inner ?? current.cause) as typeof current;
+  }
+  return seen;
+}
+
+export function isQuotaError(error: unknown): boolean {
+  return chain(error).some((e) => e.name === 'QuotaExceededError' || /quota/i.test(e.message ?? ''));
+}
+
+/** Turns a failed IndexedDB operation into a StorageError naming the site and what to do. */
+export function storageError(error: unknown, siteName: string): StorageError {
+  if (error instanceof StorageError) return error;
+  if (isQuotaError(error)) {
+    return new StorageError(
+      `Site "${siteName}": the last change was not saved because the disk is full or this app's storage quota is used up. ` +
+        'Everything saved before it is kept. Free some disk space (or remove sites you no longer need), ' +
+        'save a backup of this site to another disk, then try the change again.',
+      'full',
+      error,
+    );
+  }
+  const first = chain(error)[0];
+  if (first?.name === 'InvalidStateError' || first?.name === 'UnknownError' || first?.name === 'DatabaseClosedError') {
+    return new StorageError(
+      `Site "${siteName}": the browser's storage is not available (${first.name}: ${first.message ?? ''}). ` +
+        'Close other windows of the app and reopen the site; if the store stays unreadable, restore it from the copy on disk or a backup.',
+      'unavailable',
+      error,
+    );
+  }
+  return new StorageError(`Site "${siteName}": saving failed: ${first?.message ?? String(error)}`, 'other', error);
+}
