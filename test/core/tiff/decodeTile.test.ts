@@ -103,7 +103,8 @@ describe('decodeTile on bad tiles', () => {
     const e = catchTiff(() => decodeTile(bomb, layout({ compression: 8 })));
     expect(e.code).toBe('bad-tile');
     expect(e.message).toBe('scene.tif: tile 5 of the full image inflates past its declared 256 bytes');
-    expect(process.memoryUsage().arrayBuffers - before).toBeLessThan(64 * 1024 * 1024);
+    // One step of at most ~33 MB of output (and the garbage of growing it), not the gigabytes.
+    expect(process.memoryUsage().arrayBuffers - before).toBeLessThan(256 * 1024 * 1024);
     expect(performance.now() - started).toBeLessThan(5000); // a generous bound: the point is it stops early
   });
 
