@@ -2,19 +2,39 @@ import DataTile from 'ol/source/DataTile.js';
 import TileGrid from 'ol/tilegrid/TileGrid.js';
 import type { ProjectionLike } from 'ol/proj.js';
 import type { Raster } from '../../imagery/Raster.ts';
+import type { TileImage } from '../../imagery/renderJobs.ts';
+import { renderSharpenedTile } from '../../imagery/sharpenedTile.ts';
 import type { StretchLimits } from '../../core/render/stretch.ts';
+import type { SceneView } from '../../app/site.ts';
+import type { LayerSpec } from './layerSpec.ts';
 
 /** The raster's own tile pyramid as an OpenLayers tile grid: z 0 is its smallest overview. */
 export function rasterTileGrid(raster: Raster): TileGrid {
   const { summary } = raster;
   const levels = summary.levels;
-  const fullResolution = summary.pixelSize[0];
   const order = levels.map((_, i) => levels.length - 1 - i); // z -> level index
   return new TileGrid({
     extent: summary.extent,
     origin: [summary.extent[0], summary.extent[3]],
-    resolutions: order.map((level) => (fullResolution * summary.width) / levels[level].width),
-    tileSizes: order.map((level) => [levels[level].blockWidth, levels[level].blockHeight]),
+    resolutions: order.map((level) => raster.resolution(level)),
+    tileSizes: order.map((level) => raster.tileSize(level)),
+  });
+}
+
+type TileLoader = (level: number, x: number, y: number, signal: AbortSignal) => Promise<TileImage>;
+
+function source(raster: Raster, projection: ProjectionLike, load: TileLoader): DataTile {
+  const levelCount = raster.levelCount;
+  return new DataTile({
+    projection,
+    tileGrid: rasterTileGrid(raster),
+    interpolate: false,
+    transition: 0,
+    wrapX: false,
+    loader: async (z, x, y, { signal }) => {
+      const tile = await load(levelCount - 1 - z, x, y, signal);
+      return 'rgba' in tile ? tile.rgba : tile;
+    },
   });
 }
 
@@ -23,14 +43,26 @@ export function rasterTileGrid(raster: Raster): TileGrid {
  * for grey, three for a composite) with the given stretch.
  */
 export function rasterSource(raster: Raster, projection: ProjectionLike, bands: number[], limits: StretchLimits[]): DataTile {
-  const grid = rasterTileGrid(raster);
-  const levelCount = raster.levelCount;
-  return new DataTile({
-    projection,
-    tileGrid: grid,
-    interpolate: false,
-    transition: 0,
-    wrapX: false,
-    loader: (z, x, y, { signal }) => raster.renderTile(levelCount - 1 - z, x, y, bands, limits, signal),
-  });
+  return source(raster, projection, (level, x, y, signal) => raster.renderTile(level, x, y, bands, limits, signal));
+}
+
+/** The tile source of a layer spec over a scene; null when the scene lacks the raster it needs. */
+export function layerSource(scene: SceneView, spec: LayerSpec, projection: ProjectionLike): DataTile | null {
+  const { pan, ms } = scene;
+  switch (spec.kind) {
+    case 'pan':
+      return pan ? rasterSource(pan.raster, projection, [0], [spec.limits]) : null;
+    case 'bands':
+      return ms ? rasterSource(ms.raster, projection, spec.bands, spec.limits) : null;
+    case 'index': {
+      if (!ms) return null;
+      const range = { low: spec.low, high: spec.high, threshold: spec.threshold };
+      return source(ms.raster, projection, (level, x, y, signal) => ms.raster.renderIndexTile(level, x, y, spec.a, spec.b, range, signal));
+    }
+    case 'sharpened': {
+      if (!pan || !ms) return null;
+      const sharpen = { method: spec.method, bands: spec.bands, limits: spec.limits, gain: spec.gain };
+      return source(pan.raster, projection, (level, x, y, signal) => renderSharpenedTile(pan.raster, ms.raster, level, x, y, sharpen, signal));
+    }
+  }
 }

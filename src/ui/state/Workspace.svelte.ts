@@ -1,4 +1,5 @@
 import type { OpenSite } from '../../app/site.ts';
+import type { Surface } from '../surfaces.ts';
 
 export type Screen = 'start' | 'desk';
 
@@ -19,6 +20,8 @@ export interface Progress {
 /** What the window shows and the site in hand. Components read it and call its methods. */
 export class Workspace {
   screen = $state<Screen>('start');
+  /** Which page of the open site is shown. */
+  surface = $state<Surface>('desk');
   site = $state.raw<OpenSite | null>(null);
   progress = $state<Progress | null>(null);
   error = $state<string | null>(null);
@@ -55,6 +58,7 @@ export class Workspace {
       this.site?.dispose();
       this.site = site;
       this.screen = 'desk';
+      this.surface = 'desk';
     } catch (error) {
       if (!abort.signal.aborted) this.error = (error as Error).message;
     } finally {

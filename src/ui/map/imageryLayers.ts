@@ -1,0 +1,125 @@
+import TileLayer from 'ol/layer/Tile.js';
+import LayerGroup from 'ol/layer/Group.js';
+import type RenderEvent from 'ol/render/Event.js';
+import type { ProjectionLike } from 'ol/proj.js';
+import type { OpenSite } from '../../app/site.ts';
+import { layerSource } from './rasterSource.ts';
+import { specKey, type CompareSpec, type LayerSpec } from './layerSpec.ts';
+
+const FLICKER_MS = 700;
+/** Layers kept ready (each with its tile cache); older ones are dropped. */
+const KEPT_LAYERS = 6;
+
+/**
+ * The imagery of the map: one tile layer per layer spec, made when first shown and kept
+ * for quick switching (a few, least recently used first out); a second date over it,
+ * clipped by a swipe or flickered. The map holds `group`; nothing else here knows the map.
+ */
+export class ImageryLayers {
+  readonly group = new LayerGroup();
+  #site: OpenSite;
+  #projection: ProjectionLike;
+  #layers = new Map<string, TileLayer>();
+  #main: TileLayer | null = null;
+  #top: TileLayer | null = null;
+  #swipe = 0.5;
+  #flicker: ReturnType<typeof setInterval> | null = null;
+  #clip = (event: RenderEvent) => this.#clipTop(event);
+  #unclip = (event: RenderEvent) => (event.context as CanvasRenderingContext2D | undefined)?.restore();
+
+  constructor(site: OpenSite, projection: ProjectionLike) {
+    this.#site = site;
+    this.#projection = projection;
+  }
+
+  /** Shows a layer spec, and a second date over it when compared; a null spec keeps what is shown. */
+  show(spec: LayerSpec | null, compare: CompareSpec | null): void {
+    if (!spec) return;
+    const main = this.#layer(spec);
+    const top = compare ? this.#layer(compare.layer, 'imagery-compare') : null;
+    this.#stopFlicker();
+    if (this.#top && this.#top !== top) this.#detachClip(this.#top);
+    for (const layer of this.#layers.values()) layer.setVisible(layer === main || layer === top);
+    main?.setZIndex(0);
+    this.#main = main;
+    this.#top = top;
+    if (top && compare) {
+      top.setZIndex(1);
+      if (compare.mode === 'swipe') {
+        this.#swipe = compare.position;
+        this.#attachClip(top);
+        top.changed();
+      } else {
+        this.#detachClip(top);
+        let on = true;
+        this.#flicker = setInterval(() => {
+          on = !on;
+          top.setVisible(on);
+        }, FLICKER_MS);
+      }
+    }
+  }
+
+  dispose(): void {
+    this.#stopFlicker();
+    for (const layer of this.#layers.values()) layer.dispose();
+    this.#layers.clear();
+  }
+
+  #layer(spec: LayerSpec, className = 'imagery-layer'): TileLayer | null {
+    const key = `${className}:${specKey(spec)}`;
+    let layer = this.#layers.get(key);
+    if (layer) {
+      this.#layers.delete(key); // re-insert: most recently used last
+      this.#layers.set(key, layer);
+      return layer;
+    }
+    const scene = this.#site.scenes[spec.scene];
+    const source = scene ? layerSource(scene, spec, this.#projection) : null;
+    if (!source) return null;
+    layer = new TileLayer({ source, visible: false, className, preload: 0 });
+    this.#layers.set(key, layer);
+    this.group.getLayers().push(layer);
+    this.#evict();
+    return layer;
+  }
+
+  #evict(): void {
+    for (const [key, layer] of this.#layers) {
+      if (this.#layers.size <= KEPT_LAYERS) break;
+      if (layer === this.#main || layer === this.#top) continue;
+      this.#layers.delete(key);
+      this.group.getLayers().remove(layer);
+      layer.getSource()?.dispose();
+      layer.dispose();
+    }
+  }
+
+  #attachClip(layer: TileLayer): void {
+    layer.un('prerender', this.#clip);
+    layer.un('postrender', this.#unclip);
+    layer.on('prerender', this.#clip);
+    layer.on('postrender', this.#unclip);
+  }
+
+  #detachClip(layer: TileLayer): void {
+    layer.un('prerender', this.#clip);
+    layer.un('postrender', this.#unclip);
+  }
+
+  /** The second date shows left of the swipe line only. */
+  #clipTop(event: RenderEvent): void {
+    const context = event.context as CanvasRenderingContext2D | undefined;
+    if (!context) return;
+    const { width, height } = context.canvas;
+    context.save();
+    context.beginPath();
+    context.rect(0, 0, Math.round(width * this.#swipe), height);
+    context.clip();
+  }
+
+  #stopFlicker(): void {
+    if (this.#flicker !== null) clearInterval(this.#flicker);
+    this.#flicker = null;
+  }
+}

@@ -1,0 +1,14 @@
+// The pages of an open site, in the order the bar shows them. A page is listed only
+// once it works; add yours here and render it in App.svelte.
+
+export type Surface = 'desk' | 'help';
+
+export interface SurfaceEntry {
+  id: Surface;
+  label: string;
+}
+
+export const surfaces: SurfaceEntry[] = [
+  { id: 'desk', label: 'Desk' },
+  { id: 'help', label: 'Keys and cautions' },
+];
