@@ -4,6 +4,7 @@ import UnaryUnionOp from 'jsts/org/locationtech/jts/operation/union/UnaryUnionOp
 import { factory, fromJsts, jstsLines, type JstsGeometry } from './jstsBridge.ts';
 import { multiPolygonArea, ringSignedArea } from './measure.ts';
 import { ringIsCollinear } from './segments.ts';
+import { validityIssues } from './validity.ts';
 import type { MultiPolygonRings, Position, Ring } from './types.ts';
 
 // Make a broken outline valid, and say what changed: never silently.
@@ -90,11 +91,12 @@ export function repairOutline(parts: MultiPolygonRings): RepairResult {
 
   const dangles = polygonizer.getDangles().size() + polygonizer.getCutEdges().size();
   if (dangles > 0) changes.push(`removed ${dangles} edge(s) that enclose nothing (spikes or cut lines)`);
-  const inputParts = cleaned.length;
-  if (rings.length !== inputParts) {
-    changes.push(`rebuilt the outline from its crossing edges: ${inputParts} part(s) became ${rings.length}`);
-  } else if (faces.length > cleaned.reduce((n, r) => n + r.length, 0)) {
-    changes.push('rebuilt the outline from its crossing edges');
+  // After the clean-up, was the topology itself broken? Then the rebuild is a change.
+  const stillBroken = validityIssues(cleaned).length > 0;
+  if (rings.length !== cleaned.length) {
+    changes.push(`rebuilt the outline from its crossing edges: ${cleaned.length} part(s) became ${rings.length}`);
+  } else if (stillBroken) {
+    changes.push('rebuilt the outline from its crossing or overlapping edges');
   }
   if (Math.abs(areaAfter - areaBefore) > 1e-9 * Math.max(1, areaBefore)) {
     changes.push(`area changed from ${areaBefore.toFixed(3)} to ${areaAfter.toFixed(3)} m²`);
