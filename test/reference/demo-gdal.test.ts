@@ -54,7 +54,7 @@ describe.skipIf(!hasGdal)('demo site read by GDAL (gdal-bin 3.6)', () => {
     const generate = (dir: string) => run(tsx, [join(repo, 'src/cli/demo-data.ts'), '--out', dir, '--seed', '1', '--quiet'], { cwd: repo });
     await Promise.all([generate(dirA), generate(dirB)]);
     manifest = JSON.parse(readFileSync(join(dirA, 'manifest.json'), 'utf8'));
-  }, 400_000);
+  }, 900_000);
 
   afterAll(() => {
     if (work) rmSync(work, { recursive: true, force: true });
