@@ -23,7 +23,7 @@ Warnings (exit 0, told on stderr): no georeferencing (the app shows such a file 
 pixel space), a CRS without an EPSG code, a compression this tool cannot decode,
 ignored masks or pages. With --require-georef the first two are errors.`;
 
-const units = { metre: 'm', degree: '°', pixel: 'px' } as const;
+const units = { metre: 'm', degree: 'degrees', pixel: 'px' } as const;
 
 /** Up to 12 significant digits, without trailing zeros. */
 function num(value: number): string {

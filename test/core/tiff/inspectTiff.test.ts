@@ -188,6 +188,31 @@ describe('inspectTiff on bad input', () => {
     expect(e.message).toBe('scene.tif: the IFD chain loops back to offset 8 (a damaged or hostile file)');
   });
 
+  it('an IFD or a first-IFD offset past the end of the file', async () => {
+    const bytes = new Uint8Array([0x49, 0x49, 42, 0, 0x00, 0x10, 0, 0, 0, 0]);
+    const e = await failure(inspect(bytes));
+    expect(e.code).toBe('truncated');
+    expect(e.message).toMatch(/image directory 0 \(IFD at offset 4096\) lies past the end of the file/);
+    const none = new Uint8Array([0x49, 0x49, 42, 0, 0, 0, 0, 0]);
+    expect((await failure(inspect(none))).message).toBe('scene.tif: the TIFF header points to no image directory');
+    const bigCut = new Uint8Array([0x49, 0x49, 43, 0, 8, 0, 0, 0, 16]);
+    expect((await failure(inspect(bigCut))).code).toBe('truncated');
+  });
+
+  it('fewer tile offsets than the image size needs', async () => {
+    const entries: IfdEntry[] = [
+      { tag: Tag.ImageWidth, type: FieldType.LONG, values: [64] },
+      { tag: Tag.ImageLength, type: FieldType.LONG, values: [64] },
+      { tag: Tag.BitsPerSample, type: FieldType.SHORT, values: [8] },
+      { tag: Tag.TileWidth, type: FieldType.LONG, values: [16] },
+      { tag: Tag.TileLength, type: FieldType.LONG, values: [16] },
+    ];
+    const bytes = serializeTiff([{ entries, blocks: [new Uint8Array(256)], offsetsTag: Tag.TileOffsets, byteCountsTag: Tag.TileByteCounts }], [0]);
+    const e = await failure(inspect(bytes));
+    expect(e.code).toBe('bad-tile');
+    expect(e.message).toBe('scene.tif: the image lists 1 tiles but its size needs 16');
+  });
+
   it('too many IFDs', async () => {
     const e = await failure(inspect(longChainTiff(300)));
     expect(e.code).toBe('too-many-ifds');
