@@ -21,9 +21,6 @@ export const demoBands: readonly BandInfo[] = [
 ];
 
 export const BAND_COUNT = demoBands.length;
-export const RED = 4;
-export const RED_EDGE = 5;
-export const NIR1 = 6;
 
 /** The panchromatic band's centre and its weights over the eight bands (sum 1): it spans
  * blue to NIR1, roughly 450-800 nm. */

@@ -75,13 +75,5 @@ export const groundSpectra = {
   },
 } satisfies Record<string, Seasonal>;
 
-export type GroundMaterial = keyof typeof groundSpectra;
-
 /** What is left of each band in a cast shadow: diffuse skylight, bluer than direct sun. */
 export const shadowTransmission: Spectrum = [0.46, 0.42, 0.34, 0.31, 0.29, 0.27, 0.25, 0.25];
-
-/** NDVI (Rouse et al. 1974) from red and NIR values of any common unit. */
-export function ndvi(red: number, nir: number): number {
-  const sum = nir + red;
-  return sum === 0 ? 0 : (nir - red) / sum;
-}

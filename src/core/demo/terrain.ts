@@ -30,7 +30,8 @@ const ROCK_LEVEL = 0.84;
 const SCREE_LEVEL = 0.73;
 const OUTCROP_LEVEL = 0.75;
 const SNOW_MIN_ELEVATION = 0.58;
-const SNOW_THRESHOLD: Record<DateKey, number> = { early: 0.6, late: 0.68 };
+/** Snow lies where the snow field plus height passes this; higher by the late date (melt). */
+const SNOW_THRESHOLD: Record<DateKey, number> = { early: 0.8, late: 0.88 };
 
 export function buildTerrain(grid: SceneGrid, seed: number): Terrain {
   const n = grid.msSize;
@@ -101,7 +102,7 @@ export function groundAt(terrain: Terrain, date: DateKey, mx: number, my: number
 function snowAt(terrain: Terrain, date: DateKey, mx: number, my: number, elevation: number): boolean {
   if (elevation < SNOW_MIN_ELEVATION) return false;
   const s = sampleField(terrain, terrain.snowiness, mx, my) + 0.5 * (elevation - SNOW_MIN_ELEVATION);
-  return s > SNOW_THRESHOLD[date] + 0.2;
+  return s > SNOW_THRESHOLD[date];
 }
 
 /** Relative texture amplitude of each ground material. */
