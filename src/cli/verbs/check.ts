@@ -32,7 +32,7 @@ Checks labelled patches for what would spoil a training set. Findings:
   --iou X                 near-duplicate threshold (default 0.9)
   --min-pure N            fewest pure multispectral pixels (default 1)
   --min-area-px X         smallest area in multispectral pixels (default 2)
-  --max-vertices N        outlines with more vertices are reported, not checked (100000)
+  --max-vertices N        outlines with more vertices are reported, not checked (20000)
   --json                  print one JSON document: {"findings": [...], "counts": {...}}
 
 Input: a GeoJSON FeatureCollection; each feature has an "id" and a "species"

@@ -1,4 +1,5 @@
 import Flatbush from 'flatbush';
+import { countPurePixels } from '../geometry/purePixels.ts';
 import type { Extent } from '../geometry/types.ts';
 import { compareFindings, countByKind, type Finding, type FindingKind, type PatchId } from './findings.ts';
 import { pairFindings } from './pairFindings.ts';
@@ -12,6 +13,24 @@ import { resolveSettings, type CheckSettings, type SceneGrids } from './settings
 // and its neighbours. Flatbush trees are static, so a changed patch leaves its old slot
 // dead and joins a short list of loose patches searched one by one; the tree is rebuilt
 // when that list grows long.
+
+/** A patch's own figures, for the patch in hand. */
+export interface PatchFigures {
+  /** Area of the (repaired, when broken) outline, m². */
+  areaM2: number;
+  /** Pure multispectral pixels, or null without an MS grid or a usable outline. */
+  purePixels: number | null;
+  valid: boolean;
+}
+
+export interface LoadProgress {
+  /** Stops the load between chunks; the promise rejects with the signal's reason. */
+  signal?: AbortSignal;
+  /** Called after each chunk with patches prepared (first pass) or paired (second). */
+  onProgress?: (done: number, total: number) => void;
+  /** Patches per chunk; default 2,000. */
+  chunk?: number;
+}
 
 export interface CheckSessionOptions {
   settings?: Partial<CheckSettings>;
@@ -49,15 +68,63 @@ export class CheckSession {
 
   /** Replaces everything with these patches and checks them all. Ids must be unique. */
   load(patches: Iterable<PatchInput>): void {
+    const steps = this.#loadSteps([...patches], Infinity);
+    while (!steps.next().done) { /* one pass, no pauses */ }
+  }
+
+  /**
+   * The same as load, in chunks that yield to the event loop between them, so a worker
+   * can report progress and take a cancel. On abort the session is left empty.
+   */
+  async loadInChunks(patches: Iterable<PatchInput>, progress: LoadProgress = {}): Promise<void> {
+    const list = [...patches];
+    const steps = this.#loadSteps(list, progress.chunk ?? 2000);
+    for (let step = steps.next(); !step.done; step = steps.next()) {
+      progress.onProgress?.(step.value, list.length * 2);
+      await new Promise((resolve) => setTimeout(resolve, 0));
+      if (progress.signal?.aborted) {
+        this.#clear();
+        throw progress.signal.reason ?? new Error('the check was cancelled');
+      }
+    }
+    progress.onProgress?.(list.length * 2, list.length * 2);
+  }
+
+  /** A patch's area and pure pixel count, or null for an unknown id. */
+  figures(id: PatchId): PatchFigures | null {
+    const patch = this.#patches.get(id);
+    if (!patch) return null;
+    const ms = this.scene.ms;
+    return {
+      areaM2: patch.area,
+      purePixels: ms && patch.shape ? countPurePixels(patch.shape, ms) : null,
+      valid: patch.issues.every((issue) => issue.reason === 'repeated-point'),
+    };
+  }
+
+  #clear(): void {
     this.#patches.clear();
     this.#single.clear();
     this.#pairs.clear();
     this.#loose.clear();
+    this.#tree = null;
+    this.#slots = [];
+    this.#slotOf.clear();
+  }
+
+  /** The full check as a sequence of steps; yields work done after each chunk. */
+  *#loadSteps(patches: PatchInput[], chunk: number): Generator<number, void> {
+    this.#clear();
+    let done = 0;
     for (const input of patches) {
-      if (this.#patches.has(input.id)) throw new RangeError(`patch id ${JSON.stringify(input.id)} appears twice`);
+      if (this.#patches.has(input.id)) {
+        this.#clear();
+        throw new RangeError(`patch id ${JSON.stringify(input.id)} appears twice`);
+      }
       const patch = preparePatch(input, this.settings);
       this.#patches.set(input.id, patch);
       this.#single.set(input.id, patchFindings(patch, this.settings, this.scene));
+      if (++done % chunk === 0) yield done;
     }
     this.#rebuildTree();
     const tree = this.#tree;
@@ -69,6 +136,7 @@ export class CheckSession {
         if (j <= i) continue;
         this.#link(patch, this.#patches.get(this.#slots[j]!)!);
       }
+      if (++done % chunk === 0) yield done;
     }
   }
 

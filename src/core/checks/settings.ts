@@ -16,7 +16,8 @@ export interface CheckSettings {
   minAreaInMsPixels: number;
   /** Multispectral pixel size (m) used for the area rule when no MS grid is given. Default 1.2. */
   msPixelSize: number;
-  /** Outlines with more vertices are reported and not checked further. Default 100,000. */
+  /** Outlines with more vertices are reported and not checked further, which bounds the
+   * time one patch can take (a crown needs hundreds at most). Default 20,000. */
   maxVertices: number;
   /** Species codes that mean "more than one species here". Default ["mixed"]. */
   mixedCodes: string[];
@@ -42,7 +43,7 @@ export function defaultSettings(scene: SceneGrids = {}): CheckSettings {
     minPurePixels: 1,
     minAreaInMsPixels: 2,
     msPixelSize: scene.ms ? Math.sqrt(scene.ms.pixelWidth * scene.ms.pixelHeight) : 1.2,
-    maxVertices: 100_000,
+    maxVertices: 20_000,
     mixedCodes: ['mixed'],
   };
 }

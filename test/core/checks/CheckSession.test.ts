@@ -111,6 +111,32 @@ describe('CheckSession: incremental re-check', () => {
     expect(session.remove('zzz')).toEqual({ removed: [], added: [] });
   });
 
+  it('loads in chunks with progress, ending where a plain load ends', async () => {
+    const site = testSite(500, 4);
+    const seen: number[] = [];
+    const chunked = new CheckSession({ scene });
+    await chunked.loadInChunks(site, { chunk: 100, onProgress: (done, total) => { seen.push(done); expect(total).toBe(1000); } });
+    expect(seen.length).toBeGreaterThanOrEqual(6);
+    expect(seen[seen.length - 1]).toBe(1000);
+    expectSameFindings(chunked.findings(), runChecks(site, { scene }).findings);
+  });
+
+  it('stops a chunked load when cancelled and is left empty', async () => {
+    const controller = new AbortController();
+    const session = new CheckSession();
+    const loading = session.loadInChunks(testSite(500, 4), { chunk: 50, onProgress: (done) => { if (done >= 100) controller.abort(new Error('stop')); }, signal: controller.signal });
+    await expect(loading).rejects.toThrow('stop');
+    expect(session.size).toBe(0);
+    expect(session.findings()).toEqual([]);
+  });
+
+  it('gives a patch its area and pure pixels', () => {
+    const session = new CheckSession({ scene: { ms: { originX: 0, originY: 10, pixelWidth: 1, pixelHeight: 1, width: 10, height: 10 } } });
+    session.load([{ id: 'a', species: 'pice', rings: [[[[0.5, 0.5], [3.5, 0.5], [3.5, 3.5], [0.5, 3.5], [0.5, 0.5]]]] }]);
+    expect(session.figures('a')).toEqual({ areaM2: 9, purePixels: 4, valid: true });
+    expect(session.figures('b')).toBeNull();
+  });
+
   it('refuses duplicate ids on a full load', () => {
     const p: PatchInput = { id: 1, species: 'x', rings: [[[[0, 0], [1, 0], [1, 1], [0, 0]]]] };
     expect(() => new CheckSession().load([p, p])).toThrow(/patch id 1 appears twice/);
