@@ -105,6 +105,35 @@ describe('demo pixels against the truth', () => {
     expect(misfits.map((p) => `${p.crown.id}@${p.index}`)).toEqual([]);
   });
 
+  it('gives healthy crowns\' pure pixels their species\' spectrum within the stated variation', () => {
+    // From the species spectrum alone: DN_b = G * gain * species_b * (1 + j_b) + noise, with
+    // G = illumination x crown brightness and |j_b| <= the band jitter, so one G must
+    // fit every band. Conifers and shrubs are told apart; conifers among themselves not.
+    const v = truth.variation;
+    const gMin = v.illumination[0] * v.crownBrightness[0];
+    const gMax = v.illumination[1] * v.crownBrightness[1];
+    const noise = v.msNoiseDn + 0.5;
+    const gain = under.json<{ radiometry: { dn_per_reflectance: number } }>('manifest.json').radiometry.dn_per_reflectance;
+    const fits = (values: number[], code: string) => {
+      const s = speciesSpectra[code].early.map((r) => gain * r);
+      let lo = gMin;
+      let hi = gMax;
+      values.forEach((dn, b) => {
+        lo = Math.max(lo, (dn - noise) / ((1 + v.bandJitter) * s[b]));
+        hi = Math.min(hi, (dn + noise) / ((1 - v.bandJitter) * s[b]));
+      });
+      return lo <= hi;
+    };
+    const healthy = pure.filter((p) => p.crown.condition === 'healthy');
+    const own = healthy.filter(({ crown, index }) => !fits(bandValues(early, index), crown.species));
+    expect(own.map((p) => p.crown.id)).toEqual([]);
+    const shrubCodes = Object.keys(speciesSpectra).filter((c) => speciesByCode(c).group === 'broadleaf shrub');
+    const coniferPixels = healthy.filter((p) => speciesByCode(p.crown.species).group === 'conifer');
+    const passAsShrub = coniferPixels.filter(({ index }) => shrubCodes.some((c) => fits(bandValues(early, index), c)));
+    expect(coniferPixels.length).toBeGreaterThan(50);
+    expect(passAsShrub.length / coniferPixels.length).toBeLessThan(0.02);
+  });
+
   it('does not fit a pure pixel to a crown of another group', () => {
     // The check above must be able to fail: a conifer's pixel against a broadleaf shrub's
     // spectrum, or the reverse, fails the same test in nearly every case.
