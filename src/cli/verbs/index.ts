@@ -1,11 +1,15 @@
 import type { Verb } from '../verb.ts';
 import { agree } from './agree.ts';
 import { check } from './check.ts';
+import { folds } from './folds.ts';
 import { info } from './info.ts';
+import { pixels } from './pixels.ts';
 
 // One line per verb; each verb lives in its own file beside this one.
 export const verbs: Verb[] = [
   agree,
   check,
+  folds,
   info,
+  pixels,
 ];
