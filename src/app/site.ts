@@ -1,17 +1,12 @@
+import type { RosterEntry } from '../core/site/types.ts';
 import type { Raster } from '../imagery/Raster.ts';
 import type { StretchLimits } from '../core/render/stretch.ts';
 import type { BandEntry as BandInfo } from '../core/bandTable.ts';
+import type { SiteStore } from '../store/SiteStore.ts';
 
 // The site in hand, as the screens see it.
 
-export interface RosterEntry {
-  code: string;
-  scientificName: string;
-  commonName: string;
-  group: string;
-  colour: string;
-  key: string;
-}
+export type { RosterEntry } from '../core/site/types.ts';
 
 export type { BandEntry as BandInfo } from '../core/bandTable.ts';
 
@@ -40,5 +35,7 @@ export interface OpenSite {
   scenes: SceneView[];
   roster: RosterEntry[];
   fieldPolygons: FieldPolygons;
+  /** The stored site (patches, tags, ledger) when the imagery belongs to one. */
+  store?: SiteStore;
   dispose(): void;
 }
