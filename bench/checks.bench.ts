@@ -163,8 +163,8 @@ const incremental: Benchmark = {
       session.upsert(moved);
       session.upsert(original);
     };
-    // 300 runs = 600 edits, so the index rebuild (every 256 loose patches) is in the tail.
-    const ours = await time(edit, { runs: 300, warmup: 5 });
+    // 1100 runs = 2200 edits, so one index rebuild (after 2048 loose patches) is in the tail.
+    const ours = await time(edit, { runs: 1100, warmup: 5 });
     const base = await time(() => fullCheck(site), { runs: 5 });
     // Each timed run makes two edits (there and back); report one edit's time.
     const half = { ...ours, median: ours.median / 2, p95: ours.p95 / 2 };

@@ -43,8 +43,12 @@ export interface CheckDelta {
   added: Finding[];
 }
 
-/** Loose patches allowed before the tree is rebuilt. */
-const LOOSE_LIMIT = 256;
+/**
+ * Loose patches allowed before an edit rebuilds the tree (some milliseconds at 10,000
+ * patches). Scanning them costs microseconds per edit; callers with idle time can
+ * call compact() sooner.
+ */
+const LOOSE_LIMIT = 2048;
 
 export class CheckSession {
   readonly settings: CheckSettings;
@@ -162,6 +166,11 @@ export class CheckSession {
     const removed = this.#detach(id);
     this.#patches.delete(id);
     return { removed, added: [] };
+  }
+
+  /** Rebuilds the index over all patches now (for an idle moment after many edits). */
+  compact(): void {
+    if (this.#loose.size > 0) this.#rebuildTree();
   }
 
   /** Every current finding, in a stable order (kind, then patch ids). */
