@@ -66,6 +66,8 @@ describe('CheckSession: incremental re-check', () => {
       session.load(patches.values());
       let nextId = 10000;
       for (let step = 0; step < 300; step++) {
+        // Midway, fold the loose patches back into the index, as an idle moment would.
+        if (step === 150) session.compact();
         const ids = [...patches.keys()];
         const roll = random.next();
         if (roll < 0.1) {
