@@ -142,8 +142,10 @@ export interface ImportRecord {
   fileName: string;
   sha256: string;
   format: 'geojson' | 'shapefile' | 'kml' | 'gpx';
-  /** the CRS the file's coordinates were in */
-  sourceEpsg: number;
+  /** the CRS the file's coordinates were in, e.g. 'EPSG:4326' or the name in a .prj */
+  sourceCrs: string;
+  /** features read as patches, and as reference points or lines */
+  counts: { patches: number; references: number; skipped: number };
   /** the attribute read as the species, with each value's roster code; null when none */
   mapping: { attribute: string; values: Record<string, string> } | null;
   time: string;
