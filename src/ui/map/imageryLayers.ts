@@ -25,7 +25,7 @@ export class ImageryLayers {
   #swipe = 0.5;
   #flicker: ReturnType<typeof setInterval> | null = null;
   #clip = (event: RenderEvent) => this.#clipTop(event);
-  #unclip = (event: RenderEvent) => (event.context as CanvasRenderingContext2D | undefined)?.restore();
+  #unclip = (event: RenderEvent) => this.#drawSwipeLine(event);
 
   constructor(site: OpenSite, projection: ProjectionLike) {
     this.#site = site;
@@ -116,6 +116,22 @@ export class ImageryLayers {
     context.beginPath();
     context.rect(0, 0, Math.round(width * this.#swipe), height);
     context.clip();
+  }
+
+  /** Ends the clip, and draws the swipe line so the edge between the dates is plain to see. */
+  #drawSwipeLine(event: RenderEvent): void {
+    const context = event.context as CanvasRenderingContext2D | undefined;
+    if (!context) return;
+    context.restore();
+    const x = Math.round(context.canvas.width * this.#swipe) + 0.5;
+    context.save();
+    context.strokeStyle = 'rgba(255,255,255,0.9)';
+    context.lineWidth = 1.5;
+    context.beginPath();
+    context.moveTo(x, 0);
+    context.lineTo(x, context.canvas.height);
+    context.stroke();
+    context.restore();
   }
 
   #stopFlicker(): void {
