@@ -45,9 +45,14 @@ function geometriesOf(geometry: unknown, fail: (msg: string) => never): FieldGeo
       return [{ kind: 'point', position: needArray() as unknown as Position }];
     case 'MultiPoint':
       return (needArray() as Position[]).map((position) => ({ kind: 'point', position }));
-    case 'GeometryCollection':
+    case 'GeometryCollection': {
       if (!Array.isArray(g.geometries)) fail('GeometryCollection has no geometries array');
-      return (g.geometries as unknown[]).flatMap((inner) => geometriesOf(inner, fail));
+      // A collection's polygons are one patch of several parts (KML MultiGeometry).
+      const inner = (g.geometries as unknown[]).flatMap((item) => geometriesOf(item, fail));
+      const parts = inner.flatMap((x) => (x.kind === 'polygon' ? x.parts : []));
+      const others = inner.filter((x) => x.kind !== 'polygon');
+      return parts.length ? [{ kind: 'polygon' as const, parts }, ...others] : others;
+    }
     default:
       return fail(`"${String(g.type)}" is not a GeoJSON geometry type`);
   }
