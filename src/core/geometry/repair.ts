@@ -56,6 +56,21 @@ function insideEvenOdd(p: Position, rings: Ring[]): boolean {
   return inside;
 }
 
+/** Whether two of the faces (of one noded arrangement) have an edge in common. */
+function shareAnEdge(faces: JstsGeometry[]): boolean {
+  const seen = new Set<string>();
+  for (const face of faces) {
+    const own = new Set<string>();
+    for (const { x, y } of face.getCoordinates() as { x: number; y: number }[]) own.add(`${x} ${y}`);
+    // Faces of one arrangement that share an edge share both its ends, so two shared
+    // vertices are the cheap sign; a false alarm only costs the union.
+    let common = 0;
+    for (const key of own) if (seen.has(key) && ++common >= 2) return true;
+    for (const key of own) seen.add(key);
+  }
+  return false;
+}
+
 export function repairOutline(parts: MultiPolygonRings): RepairResult {
   const changes: string[] = [];
   const areaBefore = Math.abs(parts.reduce((sum, rings) => sum + rings.reduce((s, r) => {
@@ -85,7 +100,12 @@ export function repairOutline(parts: MultiPolygonRings): RepairResult {
     const c = new InteriorPointArea(face).getInteriorPoint();
     return cleaned.some((rings) => insideEvenOdd([c.x, c.y], rings));
   });
-  const merged = keep.length ? UnaryUnionOp.union(factory.createMultiPolygon(keep)) : null;
+  // Faces kept side by side along an edge must be merged; faces that meet at points at
+  // most (a bowtie's two lobes) already form a valid MultiPolygon, and the union, the
+  // costliest step, is skipped.
+  const merged = keep.length === 0 ? null
+    : keep.length === 1 || !shareAnEdge(keep) ? factory.createMultiPolygon(keep)
+      : UnaryUnionOp.union(factory.createMultiPolygon(keep));
   const rings = merged ? fromJsts(merged) : [];
   const areaAfter = multiPolygonArea(rings);
 
