@@ -83,8 +83,8 @@ describe('readLabelFile', () => {
     expect(problem(collection([feature('a', 'x', square(600000, 5100000, 1))]))).toMatch(/is not lon\/lat/);
     expect(problem(collection([feature('a', 'x', square(0, 0, 1), { tags: 'pice' })]))).toMatch(/"tags" must be an array/);
     expect(problem(collection([], { crs: { type: 'name', properties: { name: 'local grid' } } }))).toMatch(/unsupported "crs" name/);
-    expect(problem(collection([feature('a', 'x', square(0, 0, 1))], { crs: { type: 'name', properties: { name: 'EPSG:2056' } } }), { targetEpsg: 32632 }))
-      .toMatch(/unsupported CRS EPSG:2056/);
+    expect(problem(collection([feature('a', 'x', square(0, 0, 1))], { crs: { type: 'name', properties: { name: 'EPSG:99999' } } }), { targetEpsg: 32632 }))
+      .toMatch(/unsupported CRS EPSG:99999/);
   });
 
   it('accepts an assumed EPSG for projected coordinates without a crs member', () => {
