@@ -2,7 +2,9 @@ import GeoJSON from 'ol/format/GeoJSON.js';
 import VectorLayer from 'ol/layer/Vector.js';
 import VectorSource from 'ol/source/Vector.js';
 import type { ProjectionLike } from 'ol/proj.js';
-import { speciesStyle, type SpeciesLook } from './speciesStyle.ts';
+import Feature from 'ol/Feature.js';
+import MultiPolygon from 'ol/geom/MultiPolygon.js';
+import { patchLookStyle, speciesStyle, type PatchLook, type SpeciesLook } from './speciesStyle.ts';
 
 /** GeoJSON (RFC 7946, lon/lat) polygons drawn in the map's projection, coloured by species. */
 export function patchLayer(geojson: object, projection: ProjectionLike, looks: SpeciesLook[], speciesProperty = 'species') {
@@ -13,4 +15,99 @@ export function patchLayer(geojson: object, projection: ProjectionLike, looks: S
     className: 'patches-layer',
     updateWhileInteracting: false,
   });
+}
+
+/** One stored patch as the map draws it (outline in the scene CRS, metres). */
+export interface PatchFeatureData {
+  id: string;
+  geometry: number[][][][];
+  look: PatchLook;
+  /** imported from a field file (hidden with the field polygons) */
+  imported: boolean;
+}
+
+/**
+ * The stored patches of a site. `sync` takes the whole list and touches only the
+ * features whose outline or look changed, so a commit in a 10,000-patch site redraws
+ * without rebuilding the source.
+ */
+export class StoredPatchLayer {
+  readonly layer: VectorLayer<VectorSource<Feature<MultiPolygon>>>;
+  readonly source = new VectorSource<Feature<MultiPolygon>>({ wrapX: false });
+  #showImported = true;
+  #known = new Map<string, PatchFeatureData>();
+
+  constructor(looks: SpeciesLook[]) {
+    const style = patchLookStyle(looks);
+    this.layer = new VectorLayer({
+      source: this.source,
+      className: 'stored-patches-layer',
+      style: (feature) => {
+        const data = this.#known.get(String(feature.getId()));
+        if (!data || (data.imported && !this.#showImported && !data.look.selected)) return undefined;
+        return style(data.look);
+      },
+      updateWhileAnimating: false,
+      updateWhileInteracting: false,
+    });
+  }
+
+  setShowImported(show: boolean): void {
+    if (show === this.#showImported) return;
+    this.#showImported = show;
+    this.layer.changed();
+  }
+
+  feature(id: string): Feature<MultiPolygon> | null {
+    return this.source.getFeatureById(id) as Feature<MultiPolygon> | null;
+  }
+
+  sync(patches: readonly PatchFeatureData[]): void {
+    const seen = new Set<string>();
+    const added: Feature<MultiPolygon>[] = [];
+    let restyled = false;
+    for (const data of patches) {
+      seen.add(data.id);
+      const before = this.#known.get(data.id);
+      this.#known.set(data.id, data);
+      if (!before) {
+        const feature = new Feature(new MultiPolygon(data.geometry));
+        feature.setId(data.id);
+        feature.set('species', data.look.species, true);
+        added.push(feature);
+        continue;
+      }
+      const feature = this.feature(data.id);
+      feature?.set('species', data.look.species, true);
+      if (before.geometry !== data.geometry && feature) feature.setGeometry(new MultiPolygon(data.geometry));
+      else if (!sameLook(before.look, data.look) && feature) {
+        restyled = true;
+        feature.changed();
+      }
+    }
+    for (const id of [...this.#known.keys()]) {
+      if (seen.has(id)) continue;
+      this.#known.delete(id);
+      const feature = this.feature(id);
+      if (feature) this.source.removeFeature(feature);
+    }
+    if (added.length) this.source.addFeatures(added);
+    if (restyled) this.layer.changed();
+  }
+
+  /** Puts a feature's outline back to the stored one (after an edit was refused). */
+  restore(id: string): void {
+    const data = this.#known.get(id);
+    const feature = this.feature(id);
+    if (data && feature) feature.setGeometry(new MultiPolygon(data.geometry));
+  }
+
+  dispose(): void {
+    this.source.clear(true);
+    this.layer.dispose();
+  }
+}
+
+function sameLook(a: PatchLook, b: PatchLook): boolean {
+  return a.species === b.species && a.unsure === b.unsure && a.selected === b.selected;
 }

@@ -1,0 +1,78 @@
+import type { SiteStore } from '../../store/SiteStore.ts';
+import type { LedgerEvent, Patch, Tag } from '../../core/site/index.ts';
+import type { MultiPolygonRings } from '../../core/geometry/types.ts';
+import { newPatchId } from './patchIndex.ts';
+import { mergeOutlines, splitOutline } from './outlineEdits.ts';
+
+// Outline edits of the desk, each one or more durable ledger events. Every edit reads
+// the state at its turn in the store's queue, so a `previous` value is never stale.
+// Split and merge are two events each (change one outline, add or remove the other), so
+// they take two undo steps.
+
+export interface Actor {
+  interpreter: string;
+  time: string;
+}
+
+/** Adds a drawn patch; resolves to its id once durable. */
+export async function addPatch(store: SiteStore, geometry: MultiPolygonRings, who: Actor): Promise<string> {
+  let id = '';
+  await store.commitWith((state) => {
+    id = newPatchId(state);
+    const patch: Patch = { id, geometry, source: { kind: 'drawn' }, createdAt: who.time, createdBy: who.interpreter };
+    return { kind: 'patch.added', payload: { patch, tags: [] }, actor: who.interpreter, time: who.time };
+  });
+  return id;
+}
+
+/** Replaces a patch's outline (vertex edits, moves); nothing is written when it is unchanged. */
+export function editPatchGeometry(store: SiteStore, patchId: string, geometry: MultiPolygonRings, who: Actor): Promise<LedgerEvent | null> {
+  return store.commitWith((state) => {
+    const patch = state.patches.get(patchId);
+    if (!patch) return null;
+    if (JSON.stringify(patch.geometry) === JSON.stringify(geometry)) return null;
+    return { kind: 'patch.geometry', payload: { patchId, geometry, previous: patch.geometry }, actor: who.interpreter, time: who.time };
+  });
+}
+
+/** Deletes a patch with its tags (undo brings both back). */
+export function deletePatch(store: SiteStore, patchId: string, who: Actor): Promise<LedgerEvent | null> {
+  return store.commitWith((state) => {
+    const patch = state.patches.get(patchId);
+    if (!patch) return null;
+    const tags = [...state.tags.values()].filter((t) => t.patchId === patchId);
+    return { kind: 'patch.deleted', payload: { patch, tags }, actor: who.interpreter, time: who.time };
+  });
+}
+
+/**
+ * Cuts a patch with a line: the largest piece keeps the patch's id, each other piece
+ * becomes a new patch carrying copies of the original's tags. Resolves to the new ids.
+ */
+export async function splitPatch(store: SiteStore, patchId: string, line: [number, number][], who: Actor): Promise<string[]> {
+  const patch = store.state.patches.get(patchId);
+  if (!patch) return [];
+  const [kept, ...others] = splitOutline(patch.geometry, line);
+  await editPatchGeometry(store, patchId, kept, who);
+  const ids: string[] = [];
+  for (const piece of others) {
+    await store.commitWith((state) => {
+      const id = newPatchId(state);
+      ids.push(id);
+      const tags: Tag[] = [...state.tags.values()].filter((t) => t.patchId === patchId).map((t) => ({ ...t, patchId: id }));
+      const added: Patch = { id, geometry: piece, source: { kind: 'drawn' }, createdAt: who.time, createdBy: who.interpreter };
+      return { kind: 'patch.added', payload: { patch: added, tags }, actor: who.interpreter, time: who.time };
+    });
+  }
+  return ids;
+}
+
+/** Merges patch `other` into `into`: `into` takes the union, `other` is deleted. */
+export async function mergePatches(store: SiteStore, into: string, other: string, who: Actor): Promise<void> {
+  const a = store.state.patches.get(into);
+  const b = store.state.patches.get(other);
+  if (!a || !b || into === other) return;
+  const merged = mergeOutlines(a.geometry, b.geometry);
+  await editPatchGeometry(store, into, merged, who);
+  await deletePatch(store, other, who);
+}
