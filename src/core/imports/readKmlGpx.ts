@@ -10,12 +10,18 @@ import type { FieldFile } from './fieldFeatures.ts';
 
 function parseXml(fileName: string, text: string): Document {
   const problems: string[] = [];
-  const doc = new DOMParser({
-    onError: (level, message) => {
-      if (level !== 'warning') problems.push(String(message).split('\n')[0]);
-    },
-  }).parseFromString(text, 'text/xml');
-  if (problems.length || !doc.documentElement) throw new ImportError(fileName, [`not well-formed XML (${problems[0] ?? 'empty document'})`]);
+  let doc: ReturnType<DOMParser['parseFromString']> | null = null;
+  try {
+    doc = new DOMParser({
+      onError: (level, message) => {
+        if (level !== 'warning') problems.push(String(message).split('\n')[0]);
+      },
+    }).parseFromString(text, 'text/xml');
+  } catch (error) {
+    // xmldom throws on a fatal error after reporting it
+    if (!problems.length) problems.push((error as Error).message.split('\n')[0]);
+  }
+  if (problems.length || !doc?.documentElement) throw new ImportError(fileName, [`not well-formed XML (${problems[0] ?? 'empty document'})`]);
   return doc as unknown as Document;
 }
 
