@@ -3,6 +3,7 @@ import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { promisify } from 'node:util';
+import proj4 from 'proj4';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readTiff } from '../core/demo/sceneUnderTest.ts';
 
@@ -119,6 +120,37 @@ describe.skipIf(!hasGdal)('demo site read by GDAL (gdal-bin 3.6)', () => {
     expect(stdout).toMatch(/ID\["EPSG",4326\]\]\s*Data axis/);
     expect(stdout).toMatch(/^species: String/m);
     expect(stdout).toMatch(/^id: String/m);
+  });
+
+  it('puts the full-size field polygons back on their crowns with the true offset', () => {
+    // proj4 2.22.0 (npm) with the UTM zone 8N definition written here; polygon centroids
+    // by the shoelace formula (common practice).
+    const truth = JSON.parse(readFileSync(join(dirA, 'truth.json'), 'utf8'));
+    const field = JSON.parse(readFileSync(join(dirA, 'field.geojson'), 'utf8'));
+    const utm = '+proj=utm +zone=8 +datum=WGS84 +units=m +no_defs';
+    const crowns = new Map(truth.crowns.map((c: { id: string; fieldId: string | null }) => [c.fieldId, c]));
+    let far = 0;
+    for (const f of field.features) {
+      // Centroid about the first vertex: in raw UTM metres the cross products lose digits.
+      const projected: number[][] = f.geometry.coordinates[0].map((p: number[]) => proj4('EPSG:4326', utm, p));
+      const [ox, oy] = projected[0];
+      const ring = projected.map(([x, y]) => [x - ox, y - oy]);
+      let a = 0, cx = 0, cy = 0;
+      for (let i = 0; i + 1 < ring.length; i++) {
+        const cross = ring[i][0] * ring[i + 1][1] - ring[i + 1][0] * ring[i][1];
+        a += cross;
+        cx += (ring[i][0] + ring[i + 1][0]) * cross;
+        cy += (ring[i][1] + ring[i + 1][1]) * cross;
+      }
+      const crown = crowns.get(f.properties.id) as { centre: number[]; species: string };
+      expect(crown.species).toBe(f.properties.species);
+      const d = Math.hypot(ox + cx / (3 * a) + truth.offset.dx - crown.centre[0], oy + cy / (3 * a) + truth.offset.dy - crown.centre[1]);
+      expect(d).toBeLessThan(2 * truth.gpsNoiseSd);
+      if (d > truth.gpsNoiseSd) far++;
+    }
+    expect(far / field.features.length).toBeLessThan(0.1);
+    expect(truth.crowns.length).toBeGreaterThanOrEqual(2000);
+    expect(truth.purity.purePixels).toBeGreaterThan(5000);
   });
 
   const infoVerb = join(repo, 'src/cli/verbs/info.ts');
