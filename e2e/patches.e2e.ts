@@ -1,0 +1,136 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { openApp, screenshot, type Session } from './browser.ts';
+import { layerCanvasStats } from './canvasStats.ts';
+
+// Drawing and tagging on the desk, by keys, in real IndexedDB: draw a patch by clicks,
+// tag it with a roster key and a confidence key, undo and redo, then close the browser
+// and reopen the same profile: the patch, its tag and the undo history are all there.
+
+const profile = mkdtempSync(join(tmpdir(), 'fellfield-patches-'));
+let session: Session | null = null;
+
+afterAll(async () => {
+  await session?.close();
+  rmSync(profile, { recursive: true, force: true });
+});
+
+async function mapReady(page: Page) {
+  await page.waitForTimeout(150);
+  await page.waitForSelector('[data-testid="map"][data-ready="true"]', { timeout: 90_000 });
+}
+
+async function zoomIn(page: Page, times: number) {
+  for (let i = 0; i < times; i++) {
+    await page.click('.ol-zoom-in');
+    await page.waitForTimeout(350);
+  }
+  await mapReady(page);
+}
+
+const ownTag = (page: Page) => page.locator('[data-testid="own-tag"]').textContent();
+const saved = (page: Page) => page.locator('[data-testid="save-status"]').textContent();
+const patchCount = async (page: Page) => Number((await page.locator('.patch-panel > p.detail').last().textContent())?.match(/(\d+) patches/)?.[1]);
+
+describe('drawing and tagging a patch by keys', () => {
+  let area = '';
+
+  it('opens the demo as a stored site with its field polygons as patches', async () => {
+    session = await openApp({ profile });
+    const { page } = session;
+    await mapReady(page);
+    await expect.poll(() => patchCount(page), { timeout: 30_000 }).toBe(225);
+    expect(await saved(page)).toContain('All saved');
+    // The field polygons are drawn from the store in the roster's colours.
+    const stats = await layerCanvasStats(page, '.stored-patches-layer canvas');
+    expect(stats.opaqueShare).toBeGreaterThan(0.001);
+    expect(stats.distinctHues).toBeGreaterThanOrEqual(3);
+  });
+
+  it('draws a patch by clicks, with its area and pixels shown', async () => {
+    const { page } = session!;
+    await zoomIn(page, 3);
+    await page.keyboard.press('a');
+    await expect.poll(() => page.getAttribute('button:has-text("Draw")', 'aria-pressed')).toBe('true');
+    const corners: [number, number][] = [[300, 300], [372, 296], [380, 352], [306, 366]];
+    for (const [x, y] of corners) {
+      await page.mouse.click(x, y);
+      await page.waitForTimeout(120);
+    }
+    // While drawing, the sketch is measured live.
+    await expect.poll(() => page.locator('[data-testid="patch-measure"]').count()).toBe(1);
+    await page.mouse.click(corners[0][0], corners[0][1]);
+    await expect.poll(() => page.locator('[data-testid="patch-in-hand"] .id b').textContent()).toBe('P0001');
+    await expect.poll(() => saved(page)).toContain('All saved');
+    expect(await patchCount(page)).toBe(226);
+    area = (await page.locator('[data-testid="patch-measure"] dd').first().textContent()) ?? '';
+    const m2 = Number(area.replace(/[^\d.]/g, ''));
+    expect(m2).toBeGreaterThan(1);
+    const pixels = await page.locator('[data-testid="patch-measure"] dd').nth(1).textContent();
+    expect(pixels).toMatch(/^\d+ wholly, \d+ touched$/);
+    await page.keyboard.press('Escape'); // leave the drawing tool, keep the patch in hand
+  });
+
+  it('tags it by roster key and confidence key, undoes and redoes', async () => {
+    const { page } = session!;
+    await page.keyboard.press('2'); // PIEX in the demo roster
+    await expect.poll(() => ownTag(page)).toContain('PIEX, likely');
+    await page.keyboard.press('k'); // unsure
+    await expect.poll(() => ownTag(page)).toContain('PIEX, unsure');
+    await page.locator('input[aria-label="Note"]').fill('crown half in shadow');
+    await page.keyboard.press('Enter');
+    await expect.poll(() => page.locator('input[aria-label="Note"]').inputValue()).toBe('crown half in shadow');
+    await expect.poll(() => saved(page)).toContain('All saved');
+
+    await page.keyboard.press('Control+z'); // the note
+    await expect.poll(() => page.locator('input[aria-label="Note"]').inputValue()).toBe('');
+    await page.keyboard.press('Control+z'); // unsure
+    await expect.poll(() => ownTag(page)).toContain('PIEX, likely');
+    await page.keyboard.press('Control+z'); // the species
+    await expect.poll(() => ownTag(page)).toContain('No call of yours');
+    await page.keyboard.press('Control+Shift+z');
+    await expect.poll(() => ownTag(page)).toContain('PIEX, likely');
+    await page.keyboard.press('Control+y');
+    await expect.poll(() => ownTag(page)).toContain('PIEX, unsure');
+    await expect.poll(() => saved(page)).toContain('All saved');
+    await screenshot(page, 'patches-tagged');
+    // The patch in hand is outlined in white over the imagery.
+    const stats = await layerCanvasStats(page, '.stored-patches-layer canvas');
+    expect(stats.opaqueShare).toBeGreaterThan(0.001);
+  });
+
+  it('finds the same state after the browser is closed and reopened', async () => {
+    await session!.close();
+    session = await openApp({ profile });
+    const { page } = session;
+    await mapReady(page);
+    await expect.poll(() => patchCount(page), { timeout: 30_000 }).toBe(226);
+    await page.keyboard.press('g');
+    await page.keyboard.type('p0001');
+    await page.keyboard.press('Enter');
+    await expect.poll(() => page.locator('[data-testid="patch-in-hand"] .id b').textContent()).toBe('P0001');
+    expect(await ownTag(page)).toContain('PIEX, unsure');
+    expect(await page.locator('[data-testid="patch-measure"] dd').first().textContent()).toBe(area);
+    await mapReady(page);
+    await screenshot(page, 'patches-reopened');
+    // The undo history survived too: one step back is the confidence.
+    await page.keyboard.press('Control+z');
+    await expect.poll(() => ownTag(page)).toContain('PIEX, likely');
+    await expect.poll(() => saved(page)).toContain('All saved');
+  });
+
+  it('walks to the next untagged patch and tags it', async () => {
+    const { page } = session!;
+    await page.keyboard.press('u');
+    const id = await page.locator('[data-testid="patch-in-hand"] .id b').textContent();
+    expect(id).toMatch(/^F\d+$/); // a field polygon: the crew tagged it, this interpreter has not
+    await page.keyboard.press('1');
+    await page.keyboard.press('h');
+    await expect.poll(() => ownTag(page)).toContain('ABFI, sure');
+    await page.keyboard.press('u');
+    await expect.poll(() => page.locator('[data-testid="patch-in-hand"] .id b').textContent()).not.toBe(id);
+  });
+});
