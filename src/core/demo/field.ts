@@ -57,10 +57,16 @@ export function walkedCount(crownCount: number): number {
  * Walks a subset of crowns. `visibleShare[i]` is the share of crown i's outline area
  * that the imagery shows (from the ownership mask), so crews walk crowns one can see.
  */
-export function walkCrowns(crowns: readonly Crown[], visibleShare: ArrayLike<number>, rareCode: string, random: Random): FieldSurvey {
+export function walkCrowns(
+  crowns: readonly Crown[], visibleShare: ArrayLike<number>, rareCode: string, random: Random, chosenShift?: readonly [number, number],
+): FieldSurvey {
   const magnitude = random.uniform(1.0, 2.0);
   const direction = random.uniform(0, 2 * Math.PI);
-  const shift: [number, number] = [magnitude * Math.cos(direction), magnitude * Math.sin(direction)];
+  // A chosen shift replaces the drawn one; the draws still happen, so the rest of the
+  // survey (which crowns, every vertex's error) is the same as without it.
+  const shift: [number, number] = chosenShift
+    ? [chosenShift[0], chosenShift[1]]
+    : [magnitude * Math.cos(direction), magnitude * Math.sin(direction)];
 
   const eligible = crowns.filter((c) => c.radius >= MIN_WALKED_RADIUS_M && visibleShare[c.index] >= MIN_VISIBLE_SHARE);
   const rare = eligible.filter((c) => c.species === rareCode).slice(0, RARE_WALKED);
@@ -84,7 +90,9 @@ function walkOutline(crown: Crown, shift: [number, number], random: Random): Rin
   const count = Math.min(24, Math.max(8, Math.round((2 * Math.PI * crown.radius) / VERTEX_SPACING_M)));
   const step = (2 * Math.PI) / count;
   const start = random.uniform(0, step);
-  for (;;) {
+  // A redraw is rare (vertices lie about 0.8 m apart, errors 0.3 m); the bound only
+  // keeps a wrong constant from spinning for ever.
+  for (let attempt = 0; attempt < 10000; attempt++) {
     const offsets: Position[] = [];
     for (let i = 0; i < count; i++) {
       const theta = start + i * step + random.uniform(-0.25, 0.25) * step;
@@ -99,6 +107,7 @@ function walkOutline(crown: Crown, shift: [number, number], random: Random): Rin
     ring.push([ring[0][0], ring[0][1]]);
     return ring;
   }
+  throw new Error(`could not walk a simple outline around crown ${crown.id}`);
 }
 
 /** True when the points' polar angles about the origin go once around, strictly rising. */
