@@ -1,0 +1,72 @@
+import type { MultiPolygonRings } from '../geometry/types.ts';
+import type { LedgerEvent } from '../site/events.ts';
+
+// What happened to each patch's outline, read from the ledger in one pass: every
+// geometry change with who and when, told as a shift when the whole outline moved by
+// one offset (how a systematic GPS correction is applied), else as an edit.
+
+/** Two offsets closer than this (metres) are the same shift: far below any pixel. */
+const SAME_OFFSET_M = 1e-6;
+
+export type GeometryChange =
+  | { kind: 'shift'; seq: number; by: string; time: string; dx: number; dy: number; undo: boolean }
+  | { kind: 'edit'; seq: number; by: string; time: string; undo: boolean };
+
+export interface PatchOrigin {
+  /** The event that made the patch as it now is (a later delete and undo makes it anew). */
+  seq: number;
+  by: string;
+  time: string;
+}
+
+export interface PatchHistory {
+  origin: Map<string, PatchOrigin>;
+  changes: Map<string, GeometryChange[]>;
+}
+
+/** The one offset that moves `from` onto `to`, or null when the change is not a translation. */
+export function translationBetween(from: MultiPolygonRings, to: MultiPolygonRings): [number, number] | null {
+  if (from.length !== to.length || from.length === 0) return null;
+  let dx = NaN, dy = NaN;
+  for (let p = 0; p < from.length; p++) {
+    if (from[p].length !== to[p].length) return null;
+    for (let r = 0; r < from[p].length; r++) {
+      const a = from[p][r], b = to[p][r];
+      if (a.length !== b.length) return null;
+      for (let i = 0; i < a.length; i++) {
+        const ex = b[i][0] - a[i][0], ey = b[i][1] - a[i][1];
+        if (Number.isNaN(dx)) { dx = ex; dy = ey; continue; }
+        if (Math.abs(ex - dx) > SAME_OFFSET_M || Math.abs(ey - dy) > SAME_OFFSET_M) return null;
+      }
+    }
+  }
+  return Number.isNaN(dx) ? null : [dx, dy];
+}
+
+export function patchHistory(events: readonly LedgerEvent[]): PatchHistory {
+  const origin = new Map<string, PatchOrigin>();
+  const changes = new Map<string, GeometryChange[]>();
+  for (const e of events) {
+    const stamp = { seq: e.seq, by: e.actor, time: e.time };
+    if (e.kind === 'patch.added') {
+      origin.set(e.payload.patch.id, stamp);
+      changes.delete(e.payload.patch.id);
+    } else if (e.kind === 'import.added') {
+      for (const p of e.payload.patches) {
+        origin.set(p.id, stamp);
+        changes.delete(p.id);
+      }
+    } else if (e.kind === 'patch.geometry') {
+      const { patchId, geometry, previous } = e.payload;
+      const undo = e.undoes !== undefined;
+      const offset = translationBetween(previous, geometry);
+      const change: GeometryChange = offset
+        ? { kind: 'shift', ...stamp, dx: offset[0], dy: offset[1], undo }
+        : { kind: 'edit', ...stamp, undo };
+      const list = changes.get(patchId);
+      if (list) list.push(change);
+      else changes.set(patchId, [change]);
+    }
+  }
+  return { origin, changes };
+}
