@@ -1,4 +1,32 @@
-import { stretchTable, stretchValue, type StretchLimits } from './stretch.ts';
+import { stretchTable, type StretchLimits } from './stretch.ts';
+
+// Lookup tables of recent stretches: building one costs as much as stretching a tile,
+// and a view reuses the same few limits for every tile.
+const tables = new Map<string, Uint8Array>();
+const KEPT_TABLES = 24;
+
+function cachedTable(limits: StretchLimits, size: number): Uint8Array {
+  const key = `${size}:${limits.min}:${limits.max}:${limits.gamma}`;
+  let table = tables.get(key);
+  if (!table) {
+    table = stretchTable(limits, size);
+    if (tables.size >= KEPT_TABLES) tables.delete(tables.keys().next().value!);
+    tables.set(key, table);
+  }
+  return table;
+}
+
+/** Stretches float values to bytes: linear, or through gamma (as stretchValue does). */
+function stretchFloats(band: BandValues, limits: StretchLimits, out: Uint8ClampedArray, channel: number, pixelCount: number): void {
+  const scale = 1 / (limits.max - limits.min);
+  const inverse = 1 / limits.gamma;
+  const linear = limits.gamma === 1;
+  for (let i = 0, o = channel; i < pixelCount; i++, o += 4) {
+    const t = (band[i] - limits.min) * scale;
+    // (x + 0.5) | 0 rounds a non-negative x half up, as Math.round does.
+    out[o] = !(t > 0) ? 0 : t >= 1 ? 255 : (255 * (linear ? t : Math.pow(t, inverse)) + 0.5) | 0;
+  }
+}
 
 export type BandValues = ArrayLike<number>;
 
@@ -21,16 +49,21 @@ export function compositeRgba(
   for (let c = 0; c < 3; c++) {
     const band = channels[c];
     const integer = band instanceof Uint8Array || band instanceof Uint16Array;
-    const table = integer ? stretchTable(channelLimits[c], band instanceof Uint8Array ? 256 : 65536) : null;
-    for (let i = 0, o = c; i < pixelCount; i++, o += 4) {
-      out[o] = table ? table[band[i]] : stretchValue(band[i], channelLimits[c]);
+    if (!integer) {
+      stretchFloats(band, channelLimits[c], out, c, pixelCount);
+      continue;
     }
+    const table = cachedTable(channelLimits[c], band instanceof Uint8Array ? 256 : 65536);
+    for (let i = 0, o = c; i < pixelCount; i++, o += 4) out[o] = table[band[i]];
   }
+  const checkAll = noData !== null || bands.some((b) => !(b instanceof Uint8Array || b instanceof Uint16Array));
   for (let i = 0, o = 3; i < pixelCount; i++, o += 4) {
     let opaque = 255;
-    for (const band of bands) {
-      const v = band[i];
-      if (v === noData || v !== v) opaque = 0;
+    if (checkAll) {
+      for (const band of bands) {
+        const v = band[i];
+        if (v === noData || v !== v) opaque = 0;
+      }
     }
     out[o] = opaque;
   }

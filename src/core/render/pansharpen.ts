@@ -42,12 +42,16 @@ function checked(input: SharpenInput): { n: number; weights: number[] } {
 export function brovey(input: SharpenInput): Float32Array[] {
   const { n, weights } = checked(input);
   const gain = input.gain ?? 1;
+  const intensity = weightedSum(input.bands, weights, n);
   const out = input.bands.map(() => new Float32Array(n));
+  const pan = input.pan;
   for (let i = 0; i < n; i++) {
-    let intensity = 0;
-    for (let k = 0; k < weights.length; k++) intensity += weights[k] * input.bands[k][i];
-    const factor = intensity > 0 ? (gain * input.pan[i]) / intensity : 0;
-    for (let k = 0; k < out.length; k++) out[k][i] = input.bands[k][i] * factor;
+    const sum = intensity[i];
+    intensity[i] = sum > 0 ? (gain * pan[i]) / sum : 0; // now the factor
+  }
+  for (let k = 0; k < out.length; k++) {
+    const band = input.bands[k], target = out[k];
+    for (let i = 0; i < n; i++) target[i] = band[i] * intensity[i];
   }
   markNoData(input, out);
   return out;
@@ -62,15 +66,29 @@ export function brovey(input: SharpenInput): Float32Array[] {
 export function fastIhs(input: SharpenInput): Float32Array[] {
   const { n, weights } = checked(input);
   const gain = input.gain ?? 1;
+  const detail = weightedSum(input.bands, weights, n);
   const out = input.bands.map(() => new Float32Array(n));
-  for (let i = 0; i < n; i++) {
-    let intensity = 0;
-    for (let k = 0; k < weights.length; k++) intensity += weights[k] * input.bands[k][i];
-    const detail = gain * input.pan[i] - intensity;
-    for (let k = 0; k < out.length; k++) out[k][i] = Math.max(0, input.bands[k][i] + detail);
+  const pan = input.pan;
+  for (let i = 0; i < n; i++) detail[i] = gain * pan[i] - detail[i];
+  for (let k = 0; k < out.length; k++) {
+    const band = input.bands[k], target = out[k];
+    for (let i = 0; i < n; i++) {
+      const v = band[i] + detail[i];
+      target[i] = v > 0 ? v : 0;
+    }
   }
   markNoData(input, out);
   return out;
+}
+
+/** The synthetic pan (intensity) sum_k w_k * band_k, band by band (one pass each keeps loops simple and fast). */
+function weightedSum(bands: ArrayLike<number>[], weights: number[], n: number): Float64Array {
+  const sum = new Float64Array(n);
+  for (let k = 0; k < bands.length; k++) {
+    const band = bands[k], w = weights[k];
+    for (let i = 0; i < n; i++) sum[i] += w * band[i];
+  }
+  return sum;
 }
 
 export function sharpen(method: SharpenMethod, input: SharpenInput): Float32Array[] {
