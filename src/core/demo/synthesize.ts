@@ -21,6 +21,9 @@ export interface DemoOptions {
   /** Dates to render (default both); the rest of the scene is the same whatever is chosen,
    * so two workers can each render one date of the same scene. */
   dates?: readonly DateKey[];
+  /** The field crew's systematic shift, metres east and north, instead of a drawn one
+   * (the truth's offset is then its negative). */
+  fieldShift?: readonly [number, number];
 }
 
 export interface DemoScene {
@@ -54,7 +57,7 @@ export function synthesizeDemo(options: DemoOptions): DemoScene {
   const purity = purityCounts(grid, owner, crowns.length);
   say(`pure multispectral pixels: ${purity.pure} of ${purity.touched} touching crowns`);
 
-  const survey = walkCrowns(crowns, visibleShares(grid, crowns, owner), RARE_SPECIES, root.fork('field'));
+  const survey = walkCrowns(crowns, visibleShares(grid, crowns, owner), RARE_SPECIES, root.fork('field'), options.fieldShift);
   say(`field polygons: ${survey.polygons.length} walked`);
 
   const renderSeed = root.fork('render').uint32();
