@@ -1,7 +1,6 @@
 import { sha256Hex } from '../../core/ledger/sha256.ts';
-import { transformer } from '../../core/crs.ts';
-import type { MultiPolygonRings, Position } from '../../core/geometry/types.ts';
-import type { EventDraft, ImportRecord, Patch, RosterEntry, SceneRef, Tag } from '../../core/site/index.ts';
+import { buildImport, proposeMapping, readFieldFile } from '../../core/imports/index.ts';
+import type { EventDraft, EventPayloads, RosterEntry, SceneRef } from '../../core/site/index.ts';
 import type { Platform } from '../../platform/types.ts';
 import { SiteStore, type StoreOptions } from '../../store/SiteStore.ts';
 import { StorageError } from '../../store/StorageError.ts';
@@ -22,11 +21,6 @@ interface ManifestFiles {
   crs: { epsg: number };
   dates: { date: string }[];
   files: { name: string; role: string; date?: string; bytes: number; sha256: string }[];
-}
-
-interface FieldFeature {
-  geometry: { type: string; coordinates: unknown } | null;
-  properties: Record<string, unknown> | null;
 }
 
 export async function openStoredDemo(platform: Platform, imagery: OpenSite, options: StoreOptions = {}): Promise<SiteStore> {
@@ -81,68 +75,42 @@ async function completeDemo(store: SiteStore, platform: Platform, imagery: OpenS
   }
   if (![...state().imports.values()].some((r) => r.fileName === FIELD_FILE)) {
     const bytes = await readDemoBytes(platform, FIELD_FILE);
-    const record: ImportRecord = {
-      id: 'import-1',
+    const { file } = readFieldFile(FIELD_FILE, bytes, { siteEpsg: imagery.epsg });
+    const mapping = proposeMapping(file.features, 'species', state().roster);
+    const payload = buildImport(file, {
+      importId: 'import-1',
       fileName: FIELD_FILE,
       sha256: await sha256Hex(bytes),
-      format: 'geojson',
-      sourceCrs: 'EPSG:4326',
-      counts: { patches: 0, references: 0, skipped: 0 },
-      mapping: null,
+      sourceCrs: file.crs,
+      mapping,
+      leaveUnmappedUntagged: true,
+      passId: FIELD_PASS_ID,
+      interpreter: FIELD_CREW,
       time: time(),
-      by: FIELD_CREW,
-    };
-    const features = (JSON.parse(new TextDecoder().decode(bytes)) as { features: FieldFeature[] }).features;
-    const { patches, tags, values } = fieldPatches(features, imagery.epsg, record, state().roster);
-    record.mapping = { attribute: 'species', values };
-    record.counts = { patches: patches.length, references: 0, skipped: 0 };
-    await commit({ kind: 'import.added', payload: { record, patches, tags, references: [] } });
+      // Called on the ground, beside the plant.
+      confidence: 'sure',
+      display: { composite: 'none (called in the field)', stretch: 'none', date: 'the survey' },
+    });
+    await commit({ kind: 'import.added', payload: withFieldIds(payload) });
   }
   if (state().passes.get(FIELD_PASS_ID)?.endedAt === null) {
     await commit({ kind: 'pass.ended', payload: { passId: FIELD_PASS_ID, time: time() } });
   }
 }
 
-/** The demo's field polygons as patches in the scene CRS, with the crew's species as tags. */
-export function fieldPatches(features: FieldFeature[], epsg: number, record: ImportRecord, roster: readonly RosterEntry[]) {
-  const project = transformer(4326, epsg);
-  const codes = new Set(roster.map((e) => e.code));
-  const patches: Patch[] = [];
-  const tags: Tag[] = [];
-  const values: Record<string, string> = {};
-  features.forEach((feature, featureIndex) => {
-    const geometry = feature.geometry;
-    if (!geometry || (geometry.type !== 'Polygon' && geometry.type !== 'MultiPolygon')) {
-      throw new Error(`${record.fileName}: feature ${featureIndex + 1} is not a polygon`);
-    }
-    const lonLat = (geometry.type === 'Polygon' ? [geometry.coordinates] : geometry.coordinates) as Position[][][];
-    const parts: MultiPolygonRings = lonLat.map((rings) => rings.map((ring) => ring.map((p) => project([p[0], p[1]]))));
-    const attributes = { ...(feature.properties ?? {}) };
-    const id = String(attributes.id ?? `F${featureIndex + 1}`);
-    patches.push({
-      id,
-      geometry: parts,
-      source: { kind: 'import', importId: record.id, featureIndex, attributes },
-      createdAt: record.time,
-      createdBy: FIELD_CREW,
-    });
-    const species = String(attributes.species ?? '');
-    if (codes.has(species)) {
-      values[species] = species;
-      tags.push({
-        patchId: id,
-        passId: FIELD_PASS_ID,
-        species,
-        // Called on the ground, beside the plant.
-        confidence: 'sure',
-        note: '',
-        interpreter: FIELD_CREW,
-        time: record.time,
-        display: { composite: 'none (called in the field)', stretch: 'none', date: String(attributes.recorded ?? '') },
-      });
-    }
-  });
-  return { patches, tags, values };
+/**
+ * The crew's own polygon ids (F001, ...) as patch ids, so the desk, the field sheet and
+ * the checks speak of the same patch; kept only when every one is present and unique.
+ */
+export function withFieldIds(payload: EventPayloads['import.added']): EventPayloads['import.added'] {
+  const ids = payload.patches.map((p) => (p.source.kind === 'import' ? String(p.source.attributes.id ?? '') : ''));
+  if (ids.some((id) => id === '') || new Set(ids).size !== ids.length) return payload;
+  const rename = new Map(payload.patches.map((p, i) => [p.id, ids[i]]));
+  return {
+    ...payload,
+    patches: payload.patches.map((p) => ({ ...p, id: rename.get(p.id)! })),
+    tags: payload.tags.map((t) => ({ ...t, patchId: rename.get(t.patchId) ?? t.patchId })),
+  };
 }
 
 /** The demo's imagery joined with its stored site: closing the site closes both. */

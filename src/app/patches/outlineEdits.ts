@@ -1,7 +1,11 @@
 import { union } from 'polyclip-ts';
 import Polygonizer from 'jsts/org/locationtech/jts/operation/polygonize/Polygonizer.js';
+import UnaryUnionOp from 'jsts/org/locationtech/jts/operation/union/UnaryUnionOp.js';
+import InteriorPointArea from 'jsts/org/locationtech/jts/algorithm/InteriorPointArea.js';
+import SimplePointInAreaLocator from 'jsts/org/locationtech/jts/algorithm/locate/SimplePointInAreaLocator.js';
+import Location from 'jsts/org/locationtech/jts/geom/Location.js';
 import Coordinate from 'jsts/org/locationtech/jts/geom/Coordinate.js';
-import { factory, fromJsts, jstsShape } from '../../core/geometry/jstsBridge.ts';
+import { factory, fromJsts, jstsLines, jstsShape } from '../../core/geometry/jstsBridge.ts';
 import { multiPolygonArea } from '../../core/geometry/measure.ts';
 import type { MultiPolygonRings, Position } from '../../core/geometry/types.ts';
 
@@ -21,14 +25,15 @@ export function splitOutline(parts: MultiPolygonRings, line: Position[]): MultiP
   if (line.length < 2) throw new OutlineEditError('the cutting line needs at least two points');
   const shape = jstsShape(parts);
   const cut = factory.createLineString(line.map(([x, y]) => new Coordinate(x, y)));
-  const noded = shape.getBoundary().union(cut);
+  // The union of the rings and the line nodes them where they cross.
+  const noded = UnaryUnionOp.union(factory.createGeometryCollection([jstsLines(parts), cut]));
   const polygonizer = new Polygonizer();
   polygonizer.add(noded);
   const faces: MultiPolygonRings[] = [];
-  const polygons = polygonizer.getPolygons();
-  for (const face of polygons.toArray()) {
+  for (const face of polygonizer.getPolygons().toArray()) {
     // A face belongs to the outline when a point surely inside it is inside the outline.
-    if (shape.contains(face.getInteriorPoint())) faces.push(fromJsts(face));
+    const inner = InteriorPointArea.getInteriorPoint(face);
+    if (SimplePointInAreaLocator.locate(inner, shape) === Location.INTERIOR) faces.push(fromJsts(face));
   }
   if (faces.length < 2) throw new OutlineEditError('the line must cross the patch from one side to the other');
   return faces.sort((a, b) => multiPolygonArea(b) - multiPolygonArea(a));
