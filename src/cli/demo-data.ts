@@ -115,7 +115,8 @@ export async function writeDemoSite(options: DemoSiteOptions = {}): Promise<{ di
   // means a complete site, even after an interrupted run.
   rmSync(join(dir, 'manifest.json'), { force: true });
   const names: string[] = [];
-  for (const file of files) {
+  const manifestLast = [...files.filter((f) => f.name !== 'manifest.json'), ...files.filter((f) => f.name === 'manifest.json')];
+  for (const file of manifestLast) {
     const target = join(dir, file.name);
     const partial = join(dir, `.${file.name}.partial-${process.pid}`);
     try {
