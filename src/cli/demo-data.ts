@@ -12,6 +12,7 @@ import { parseArgs } from 'node:util';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
 import { demoFiles, demoRasterFiles, type DemoFile } from '../core/demo/files.ts';
 import { DATE_KEYS, FULL_SIZE, type DateKey } from '../core/demo/scene.ts';
+import { demoSiteFile } from '../core/export/demoSiteFile.ts';
 import { synthesizeDemo } from '../core/demo/synthesize.ts';
 import { InputError } from './errors.ts';
 
@@ -67,7 +68,7 @@ function runDateJob(job: DateJob): void {
 const usage = `npm run demo:data -- [--out DIR] [--seed N] [--size PIXELS] [--quiet]
 
 Writes the demo site: pan.tif, ms.tif, pan-late.tif, ms-late.tif, field.geojson,
-truth.json, roster.json and manifest.json.
+truth.json, roster.json, manifest.json and demo.site.json (the site file).
   --out DIR      where to write (default: demo/ at the repository root)
   --seed N       a non-negative integer; the same seed gives the same bytes (default ${DEFAULT_DEMO_SEED})
   --size PIXELS  panchromatic pixels on a side, a multiple of 4 from 64 (default ${FULL_SIZE})
@@ -111,6 +112,7 @@ export async function writeDemoSite(options: DemoSiteOptions = {}): Promise<{ di
       ?? demoRasterFiles(synthesizeDemo({ seed, size, dates: [key], onProgress: say }), key, (name) => say(`encoding ${name}`));
   }
   const files = await demoFiles(scene, () => {}, prepared);
+  files.push(await demoSiteFile(files));
   // The manifest goes last and an old one goes first, so a manifest on disk always
   // means a complete site, even after an interrupted run.
   rmSync(join(dir, 'manifest.json'), { force: true });

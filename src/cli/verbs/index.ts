@@ -1,6 +1,7 @@
 import type { Verb } from '../verb.ts';
 import { agree } from './agree.ts';
 import { check } from './check.ts';
+import { exportVerb } from './export.ts';
 import { folds } from './folds.ts';
 import { info } from './info.ts';
 import { offset } from './offset.ts';
@@ -10,6 +11,7 @@ import { pixels } from './pixels.ts';
 export const verbs: Verb[] = [
   agree,
   check,
+  exportVerb,
   folds,
   info,
   offset,
