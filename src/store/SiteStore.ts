@@ -62,6 +62,44 @@ export class SiteStore {
     }
   }
 
+  /**
+   * Writes a whole site (a verified ledger and the state it replays to) into a new
+   * database in one transaction. Refuses when the site is already here, unless `replace`.
+   */
+  static async restore(state: SiteState, ledger: LedgerEvent[], options: StoreOptions & { replace?: boolean } = {}): Promise<SiteStore> {
+    const site = state.site;
+    if (!site) throw new StorageError('The site to restore has no site record.', 'other');
+    const db = new SiteDatabase(siteDatabaseName(site.id), options);
+    try {
+      await db.open();
+      if ((await db.ledger.count()) > 0 && !options.replace) {
+        throw new StorageError(`Site "${site.name}" is already on this machine; remove it first or choose to replace it.`, 'other');
+      }
+      await db.transaction('rw', CURRENT_TABLES.map((t) => db.table(t)), async () => {
+        await Promise.all(CURRENT_TABLES.map((t) => db.table(t).clear()));
+        await db.ledger.bulkAdd(ledger);
+        await db.meta.bulkPut([
+          { key: 'head', value: state.head },
+          { key: 'history', value: state.history },
+          { key: 'site', value: state.site },
+          { key: 'roster', value: state.roster },
+        ]);
+        await db.scenes.bulkPut([...state.scenes.values()]);
+        await db.patches.bulkPut([...state.patches.values()].map((p) => ({ ...p, ...patchMeasures(p.geometry) })));
+        await db.tags.bulkPut([...state.tags].map(([key, tag]) => ({ ...tag, key })));
+        await db.passes.bulkPut([...state.passes.values()]);
+        await db.rulings.bulkPut([...state.rulings.values()]);
+        await db.references.bulkPut([...state.references.values()]);
+        await db.imports.bulkPut([...state.imports.values()]);
+      });
+    } catch (error) {
+      db.close();
+      throw storageError(error, site.name);
+    }
+    await rememberSite(site, options);
+    return new SiteStore(db, state);
+  }
+
   /** Removes a site's database from this machine. */
   static async remove(siteId: string, options: StoreOptions = {}): Promise<void> {
     await new SiteDatabase(siteDatabaseName(siteId), options).delete();
