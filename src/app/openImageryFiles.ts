@@ -1,4 +1,4 @@
-import { bandTableFor } from '../core/bandTable.ts';
+import { bandTableFor, bandTableProblem } from '../core/bandTable.ts';
 import { createRenderPool } from '../imagery/renderPool.ts';
 import { Raster } from '../imagery/Raster.ts';
 import type { FileRef, Platform } from '../platform/types.ts';
@@ -39,22 +39,34 @@ export async function openImageryFiles(platform: Platform, files: FileRef[], opt
     const ms = rasters.filter((r) => r.summary.bands > 1);
     if (pan.length > 1) problems.push(`${pan.map((r) => r.file.name).join(' and ')}: both are one-band rasters; a scene pairs one panchromatic with one multiband raster`);
     if (ms.length > 1) problems.push(`${ms.map((r) => r.file.name).join(' and ')}: both are multiband rasters; a scene pairs one panchromatic with one multiband raster`);
-    if (pan.length === 1 && ms.length === 1 && pan[0].summary.epsg !== ms[0].summary.epsg) {
-      problems.push(`${pan[0].file.name} is in EPSG:${pan[0].summary.epsg} but ${ms[0].file.name} is in EPSG:${ms[0].summary.epsg}; a scene's rasters must share one CRS`);
-    }
     if (problems.length) throw new Error(problems.join('\n'));
 
+    // A pair that disagrees is told how; the panchromatic raster is kept, so the scene is still usable.
+    const notes: string[] = [];
+    if (pan.length === 1 && ms.length === 1) {
+      const disagreement = pairProblem(pan[0], ms[0]);
+      if (disagreement) {
+        notes.push(disagreement);
+        if (pan[0].summary.epsg !== ms[0].summary.epsg) ms.pop();
+      }
+    }
+    const kept = [...pan, ...ms];
+
     onProgress({ label: 'Computing the default stretch', fraction: 0.9 });
-    const first = rasters[0].summary;
+    const first = kept[0].summary;
     const msRaster = ms[0] ?? null;
-    const msBands = msRaster ? bandTableFor(msRaster.summary.bands, msRaster.summary.bandNames, msRaster.summary.bandWavelengthsNm) : [];
-    const hasNaturalColour = ['red', 'green', 'blue'].every((name) => msBands.some((b) => b.name.toLowerCase() === name));
+    let msBands: ReturnType<typeof bandTableFor> = [];
+    if (msRaster) {
+      const { bands, bandNames, bandWavelengthsNm } = msRaster.summary;
+      msBands = bandTableFor(bands, bandNames, bandWavelengthsNm);
+      const tableProblem = bandTableProblem(bands, bandNames, bandWavelengthsNm);
+      if (tableProblem) notes.push(`${msRaster.file.name}: ${tableProblem}`);
+    }
     const [panView, msView] = await Promise.all([
       pan[0] ? panchromaticView(pan[0], signal) : null,
-      msRaster && hasNaturalColour ? multispectralView(msRaster, msBands, signal) : null,
+      msRaster ? multispectralView(msRaster, msBands, signal, notes) : null,
     ]);
-    if (msRaster && !hasNaturalColour) throw new Error(`${msRaster.file.name}: its bands (${msBands.map((b) => b.name).join(', ')}) include no red, green and blue for a natural-colour view`);
-    const extents = rasters.map((r) => r.summary.extent);
+    const extents = kept.map((r) => r.summary.extent);
     return {
       name: files.map((f) => f.name).join(' + '),
       epsg: first.epsg!,
@@ -68,10 +80,29 @@ export async function openImageryFiles(platform: Platform, files: FileRef[], opt
       scenes: [{ date: first.metadata.TIFFTAG_DATETIME ?? 'date not recorded', pan: panView, ms: msView }],
       roster: [],
       fieldPolygons: { type: 'FeatureCollection', features: [] },
+      notes,
       dispose: () => pool.dispose(),
     };
   } catch (error) {
     pool.dispose();
     throw error;
   }
+}
+
+/** How a panchromatic and a multiband raster disagree (CRS, footprint), or null when they pair. */
+export function pairProblem(pan: Raster, ms: Raster): string | null {
+  const a = pan.summary, b = ms.summary;
+  if (a.epsg !== b.epsg) {
+    return `${pan.file.name} is in EPSG:${a.epsg} but ${ms.file.name} is in EPSG:${b.epsg}; a scene's rasters must share one CRS, so only ${pan.file.name} is shown (reproject one, e.g. gdalwarp -t_srs EPSG:${a.epsg})`;
+  }
+  const [ax0, ay0, ax1, ay1] = a.extent, [bx0, by0, bx1, by1] = b.extent;
+  const w = Math.min(ax1, bx1) - Math.max(ax0, bx0), h = Math.min(ay1, by1) - Math.max(ay0, by0);
+  const area = (ax1 - ax0) * (ay1 - ay0);
+  if (w <= 0 || h <= 0) {
+    const dx = (bx0 + bx1) / 2 - (ax0 + ax1) / 2, dy = (by0 + by1) / 2 - (ay0 + ay1) / 2;
+    return `${pan.file.name} and ${ms.file.name} do not overlap: the centre of ${ms.file.name} lies ${Math.round(Math.abs(dx))} m ${dx >= 0 ? 'east' : 'west'} and ${Math.round(Math.abs(dy))} m ${dy >= 0 ? 'north' : 'south'} of the other's`;
+  }
+  const share = (w * h) / area;
+  if (share < 0.95) return `${ms.file.name} covers only ${Math.round(share * 100)} % of ${pan.file.name}; pan-sharpened views are empty outside it`;
+  return null;
 }

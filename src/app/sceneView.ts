@@ -11,14 +11,21 @@ export async function panchromaticView(raster: Raster, signal?: AbortSignal): Pr
   return { raster, limits: await defaultStretch(raster, 0, signal) };
 }
 
-/** A multispectral raster with its natural-colour composite, bands found by name. */
-export async function multispectralView(raster: Raster, bands: BandInfo[], signal?: AbortSignal): Promise<SceneView['ms']> {
-  const find = (name: string) => {
-    const band = bands.find((b) => b.name.toLowerCase() === name);
-    if (!band) throw new Error(`${raster.file.name}: no ${name} band in its band table, so no natural-colour view`);
-    return band.index - 1;
-  };
-  const rgb: [number, number, number] = [find('red'), find('green'), find('blue')];
+/**
+ * A multispectral raster with its natural-colour composite, bands found by name. A
+ * raster without red, green and blue gets its first three bands (or fewer, repeated)
+ * and a note saying so, so it can still be seen.
+ */
+export async function multispectralView(raster: Raster, bands: BandInfo[], signal?: AbortSignal, notes: string[] = []): Promise<SceneView['ms']> {
+  const find = (name: string) => bands.find((b) => b.name.toLowerCase() === name)?.index;
+  const named = ['red', 'green', 'blue'].map(find);
+  let rgb: [number, number, number];
+  if (named.every((i) => i !== undefined)) rgb = named.map((i) => i! - 1) as [number, number, number];
+  else {
+    const n = raster.summary.bands;
+    rgb = [0, Math.min(1, n - 1), Math.min(2, n - 1)];
+    notes.push(`${raster.file.name}: its band table (${bands.map((b) => b.name).join(', ')}) has no red, green and blue, so the composite shows bands ${rgb.map((b) => b + 1).join(', ')}; choose others under Custom`);
+  }
   const [r, g, b] = await Promise.all(rgb.map((band) => defaultStretch(raster, band, signal)));
   return { raster, bands, naturalColour: { bands: rgb, limits: [r, g, b] } };
 }

@@ -35,6 +35,8 @@ export interface OpenSite {
   scenes: SceneView[];
   roster: RosterEntry[];
   fieldPolygons: FieldPolygons;
+  /** Things the user should know that did not stop the site opening (a band table that does not fit, a raster left out). */
+  notes?: string[];
   /** The stored site (patches, tags, ledger) when the imagery belongs to one. */
   store?: SiteStore;
   dispose(): void;

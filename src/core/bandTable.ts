@@ -29,8 +29,23 @@ export function presetBandTable(bandCount: number): BandEntry[] | null {
  */
 export function bandTableFor(bandCount: number, names: (string | null)[] | null, wavelengths: (number | null)[] | null): BandEntry[] {
   const named = names?.length === bandCount && names.every((n) => n && n.trim());
+  const fitting = wavelengths?.length === bandCount ? wavelengths : null;
   if (named) {
-    return names!.map((name, i) => ({ index: i + 1, name: name!.trim(), centre_nm: wavelengths?.[i] ?? null }));
+    return names!.map((name, i) => ({ index: i + 1, name: name!.trim(), centre_nm: fitting?.[i] ?? null }));
   }
-  return presetBandTable(bandCount) ?? Array.from({ length: bandCount }, (_, i) => ({ index: i + 1, name: `band ${i + 1}`, centre_nm: wavelengths?.[i] ?? null }));
+  return presetBandTable(bandCount) ?? Array.from({ length: bandCount }, (_, i) => ({ index: i + 1, name: `band ${i + 1}`, centre_nm: fitting?.[i] ?? null }));
+}
+
+/**
+ * Why the band names (and wavelengths) in a file's metadata cannot be the band table of
+ * a raster with `bandCount` bands, or null when they can (or when there are none).
+ */
+export function bandTableProblem(bandCount: number, names: (string | null)[] | null, wavelengths: (number | null)[] | null): string | null {
+  if (names && names.some((n) => n && n.trim()) && names.length !== bandCount) {
+    return `its metadata names ${names.length} bands but the raster has ${bandCount}, so ${presetBandTable(bandCount) ? `the ${bandCount}-band preset is` : 'band numbers are'} used instead`;
+  }
+  if (wavelengths && wavelengths.some((w) => w !== null) && wavelengths.length !== bandCount) {
+    return `its metadata gives ${wavelengths.length} wavelengths for ${bandCount} bands; they are left out`;
+  }
+  return null;
 }

@@ -26,6 +26,8 @@ export class Raster {
   readonly pool: RenderPool;
   #reader: RangeReader;
   #samples = new Map<string, Promise<BandSample>>();
+  #failed = new Set<string>();
+  #listeners = new Set<(message: string, count: number) => void>();
 
   private constructor(reader: RangeReader, pool: RenderPool, file: FileRef, summary: TiffSummary) {
     this.#reader = reader;
@@ -45,6 +47,33 @@ export class Raster {
   /** A raster from a summary read elsewhere (a worker, a test, the command line). */
   static fromSummary(reader: RangeReader, pool: RenderPool, file: FileRef, summary: TiffSummary): Raster {
     return new Raster(reader, pool, file, summary);
+  }
+
+  /**
+   * Hears of tiles that could not be shown (a damaged block, a failed read): the message
+   * of the latest and how many have failed. The rest of the raster stays usable.
+   */
+  onProblem(listener: (message: string, count: number) => void): () => void {
+    this.#listeners.add(listener);
+    return () => this.#listeners.delete(listener);
+  }
+
+  /** Runs a tile's work; a failure (not a cancellation) is told to the listeners, then rethrown. */
+  async #watch<T>(what: string, work: () => Promise<T>): Promise<T> {
+    try {
+      return await work();
+    } catch (error) {
+      if ((error as Error).name !== 'AbortError') this.reportProblem(what, error as Error);
+      throw error;
+    }
+  }
+
+  /** Tells the listeners of a tile that failed (once per tile). */
+  reportProblem(what: string, error: Error): void {
+    if (this.#failed.has(what)) return;
+    this.#failed.add(what);
+    const message = error.message.startsWith(this.file.name) ? error.message : `${this.file.name}: ${error.message}`;
+    for (const listener of this.#listeners) listener(message, this.#failed.size);
   }
 
   get levelCount(): number {
@@ -117,28 +146,32 @@ export class Raster {
   }
 
   /** A finished RGBA tile: one band as grey, or three as red, green, blue. */
-  async renderTile(level: number, bx: number, by: number, bands: number[], limits: StretchLimits[], signal?: AbortSignal): Promise<TileImage> {
-    const frame = this.tileFrame(level, bx, by);
-    const tiles = await Promise.all(bands.map((band) => this.blocksCovering(level, band, frame.box, signal)));
-    return (await this.pool.run({
-      payload: { kind: 'bands', ...frame, bands: tiles, limits },
-      transfer: uniqueBuffers(tiles),
-      signal,
-    })) as TileImage;
+  renderTile(level: number, bx: number, by: number, bands: number[], limits: StretchLimits[], signal?: AbortSignal): Promise<TileImage> {
+    return this.#watch(`${level}/${bx}/${by}/${bands}`, async () => {
+      const frame = this.tileFrame(level, bx, by);
+      const tiles = await Promise.all(bands.map((band) => this.blocksCovering(level, band, frame.box, signal)));
+      return (await this.pool.run({
+        payload: { kind: 'bands', ...frame, bands: tiles, limits },
+        transfer: uniqueBuffers(tiles),
+        signal,
+      })) as TileImage;
+    });
   }
 
   /** A finished tile of the normalised difference of bands a and b, coloured by the ramp. */
-  async renderIndexTile(
+  renderIndexTile(
     level: number, bx: number, by: number, a: number, b: number,
     range: { low: number; high: number; threshold: number | null }, signal?: AbortSignal,
   ): Promise<TileImage> {
-    const frame = this.tileFrame(level, bx, by);
-    const [ta, tb] = await Promise.all([a, b].map((band) => this.blocksCovering(level, band, frame.box, signal)));
-    return (await this.pool.run({
-      payload: { kind: 'index', ...frame, bands: [ta, tb], ...range },
-      transfer: uniqueBuffers([ta, tb]),
-      signal,
-    })) as TileImage;
+    return this.#watch(`${level}/${bx}/${by}/${a},${b}`, async () => {
+      const frame = this.tileFrame(level, bx, by);
+      const [ta, tb] = await Promise.all([a, b].map((band) => this.blocksCovering(level, band, frame.box, signal)));
+      return (await this.pool.run({
+        payload: { kind: 'index', ...frame, bands: [ta, tb], ...range },
+        transfer: uniqueBuffers([ta, tb]),
+        signal,
+      })) as TileImage;
+    });
   }
 
   /** Every listed band's values over a window of a level, NaN outside the image. */

@@ -40,6 +40,15 @@ export function multispectralWindow(pan: Raster, ms: Raster, level: number, bx: 
 
 /** Renders one pan-sharpened tile of the pan raster's view grid. */
 export async function renderSharpenedTile(pan: Raster, ms: Raster, level: number, bx: number, by: number, spec: SharpenSpec, signal?: AbortSignal): Promise<TileImage> {
+  try {
+    return await sharpenedTile(pan, ms, level, bx, by, spec, signal);
+  } catch (error) {
+    if ((error as Error).name !== 'AbortError') pan.reportProblem(`sharpened ${level}/${bx}/${by}`, error as Error);
+    throw error;
+  }
+}
+
+async function sharpenedTile(pan: Raster, ms: Raster, level: number, bx: number, by: number, spec: SharpenSpec, signal?: AbortSignal): Promise<TileImage> {
   const frame = pan.tileFrame(level, bx, by);
   const { msLevel, msBox, x0, y0, step } = multispectralWindow(pan, ms, level, bx, by);
   const [panTiles, ...bandTiles] = await Promise.all([

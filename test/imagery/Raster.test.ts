@@ -1,4 +1,4 @@
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -102,5 +102,25 @@ describe('Raster windows over every encoding', () => {
     const tile = (await renderSharpenedTile(pan, ms, 0, 0, 0, { method: 'ihs', bands: [0, 1, 2], limits: [0, 1, 2].map(() => ({ min: 0, max: 300, gamma: 1 })), gain: 1 })) as RgbaTile;
     expect(tile.width).toBe(32);
     expect(tile.rgba.filter((_, i) => i % 4 === 3).every((a) => a === 255)).toBe(true);
+  });
+
+  it('tells of a broken tile in the middle of a file and still shows the others', async () => {
+    const { path } = write('broken.tif', { type: 'uint16', compression: 'deflate', stripped: false });
+    const intact = await openRasterFile(path);
+    const level = intact.summary.levels[0];
+    const index = 1; // the second tile of band 1
+    const bytes = readFileSync(path);
+    bytes.fill(0xff, level.offsets[index], level.offsets[index] + level.byteCounts[index]);
+    writeFileSync(path, bytes);
+    const raster = await openRasterFile(path);
+    const heard: string[] = [];
+    raster.onProblem((message, count) => heard.push(`${count}: ${message}`));
+    const limits = [{ min: 0, max: 200, gamma: 1 }];
+    await expect(raster.renderTile(0, 1, 0, [0], limits)).rejects.toThrow(/broken\.tif: tile 1 of the full image/);
+    await expect(raster.renderTile(0, 1, 0, [0], limits)).rejects.toThrow();
+    expect(heard).toHaveLength(1); // told once per tile
+    expect(heard[0]).toMatch(/^1: broken\.tif: tile 1 of the full image/);
+    const other = (await raster.renderTile(0, 0, 0, [0], limits)) as RgbaTile;
+    expect(other.width).toBe(32);
   });
 });

@@ -43,6 +43,8 @@ export class ImageryView {
   samples = $state.raw<Readonly<Record<string, BandSample>>>({});
   /** A message when the chosen view cannot be shown (a band the table lacks, a failed read). */
   problem = $state<string | null>(null);
+  /** Tiles that could not be shown (a damaged block in the middle of a file): the latest message and the count. */
+  tileProblem = $state<string | null>(null);
   readonly site: OpenSite;
   /** Sample reads under way, by scene and band key (not shown, so not reactive). */
   #loading: Record<string, boolean> = {};
@@ -53,6 +55,13 @@ export class ImageryView {
     const first = site.scenes[0];
     if (!first.ms) this.display = 'pan';
     if (first.ms) this.customBands = [...first.ms.naturalColour.bands];
+    for (const scene of site.scenes) {
+      for (const raster of [scene.pan?.raster, scene.ms?.raster]) {
+        raster?.onProblem((message, count) => {
+          this.tileProblem = count === 1 ? `A tile could not be shown: ${message}` : `${count} tiles could not be shown; the latest: ${message}`;
+        });
+      }
+    }
     this.#load();
   }
 
