@@ -2,7 +2,7 @@ import type { MultiPolygonRings } from '../geometry/types.ts';
 import { hashUnit } from '../random.ts';
 import { bootstrapShift, latticePeak, type BootstrapSummary } from './bootstrap.ts';
 import { patchTemplate, type PatchTemplate } from './patchTemplate.ts';
-import { median } from './robust.ts';
+import { peakSignificance } from './significance.ts';
 import { ownPeak, residualsAgainst, type OwnPeak, type PatchResidual } from './residuals.ts';
 import { combine, evaluateLattice, latticeNodes, latticeSide, nodeInRadius, nodeShift, onRim, type ShiftLattice } from './shiftLattice.ts';
 import { isConstant, type SignalGrid, type SignalKind } from './signalGrid.ts';
@@ -38,8 +38,10 @@ export interface OffsetSettings {
   outlierMinM: number;
   /** Outliers: contrast at the common shift below this share of the patch's own best (default 0.5). */
   outlierMinFit: number;
-  /** The peak must stand this many standard errors above the surface's median (default 6). */
+  /** The peak must stand this many standard deviations above the peaks of randomly
+   * misaligned surrogates (default 4), of which there are `surrogates` (default 100). */
   minSignificance: number;
+  surrogates: number;
   signal: SignalKind;
 }
 
@@ -74,7 +76,7 @@ export interface OffsetEstimate {
   /** 95 % radius of the bootstrap replicates around the estimate, metres. */
   uncertainty: number | null;
   bootstrap: BootstrapSummary | null;
-  /** Peak gain over the surface median in standard errors across the inlier patches. */
+  /** The peak over chance alignments, in standard deviations (see significance.ts). */
   significance: number;
   /** The patches used, in input order, and the outliers among them. */
   patches: OffsetPatchResult[];
@@ -88,7 +90,7 @@ export function defaultSettings(panPixel: number, signalPixel: number, overrides
   const coarseStep = overrides.coarseStep ?? 2 * panPixel;
   return {
     radius: 3, coarseStep, refine: 8, spacing: Math.max(panPixel / 2, signalPixel / 4), ownReach: 2, ringWidth: 1.2, replicates: 200, seed: 1,
-    outlierZ: 3.5, outlierMinM: 0.75, outlierMinFit: 0.5, minSignificance: 6, signal: 'ndvi', ...overrides,
+    outlierZ: 3.5, outlierMinM: 0.75, outlierMinFit: 0.5, minSignificance: 4, surrogates: 100, signal: 'ndvi', ...overrides,
   };
 }
 
@@ -142,7 +144,6 @@ export function estimateShift(patches: readonly OffsetPatch[], grid: SignalGrid,
 export function estimateFromTemplates(templates: readonly PatchTemplate[], grid: SignalGrid, settings: OffsetSettings): OffsetEstimate {
   const n = templates.length;
   const { wide, search: coarse } = coarseLattices(settings);
-  const coarseNodes = latticeNodes(coarse);
   const perCoarse = evaluateLattice(templates, grid, wide);
   const rule = { zLimit: settings.outlierZ, minDistance: settings.outlierMinM, minFit: settings.outlierMinFit };
   const reasons: string[] = [];
@@ -189,13 +190,15 @@ export function estimateFromTemplates(templates: readonly PatchTemplate[], grid:
   if (!coarseBest || !peak || !fine) {
     reasons.push('no polygon has imagery under it at any tried shift');
   } else {
-    if (onRim(coarse, coarseBest.node)) {
+    // On the rim of the fine lattice: next to the radius, or the coarse peak was not the true one.
+    if (onRim(fine, peak.node)) {
       reasons.push(`the best fit lies on the edge of the ${settings.radius} m search radius: the shift may be larger`);
     }
     if (!peak.fitted) reasons.push('the score surface has no clear peak (its fitted curvature is not a maximum)');
-    significance = peakSignificance(perCoarse, perFine, members, coarseNodes, latticeNodes(fine), peak.node);
+    // Over all patches: the inliers were chosen for agreeing, which would flatter them.
+    significance = peakSignificance(perCoarse, [...templates.keys()], coarse, settings.surrogates, settings.seed + 1);
     if (!(significance >= settings.minSignificance)) {
-      reasons.push(`the peak does not stand out (${significance.toFixed(1)} standard errors above the surface, ${settings.minSignificance} needed)`);
+      reasons.push(`the peak does not stand out (${significance.toFixed(1)} standard deviations above chance alignments, ${settings.minSignificance} needed)`);
     }
     if (members.length < 2) reasons.push('fewer than two polygons agree on a shift');
     else {
@@ -238,26 +241,4 @@ export function estimateFromTemplates(templates: readonly PatchTemplate[], grid:
   };
 }
 
-/**
- * How far the peak stands above the rest of the surface: each inlier patch's gain
- * (its contrast at the peak minus its median contrast over the coarse lattice), as a
- * one-sample t statistic of the mean gain. Common practice; the peak was chosen as the
- * maximum, so flat noise still scores a few units, hence the margin of the threshold.
- */
-function peakSignificance(
-  perCoarse: Float32Array, perFine: Float32Array, members: readonly number[], coarseNodes: number, fineNodes: number, node: number,
-): number {
-  const gains: number[] = [];
-  for (const p of members) {
-    const atPeak = perFine[p * fineNodes + node];
-    const values = Array.from(perCoarse.subarray(p * coarseNodes, (p + 1) * coarseNodes)).filter(Number.isFinite);
-    if (!Number.isFinite(atPeak) || values.length === 0) continue;
-    gains.push(atPeak - median(values));
-  }
-  if (gains.length < 2) return 0;
-  const mean = gains.reduce((s, g) => s + g, 0) / gains.length;
-  const sd = Math.sqrt(gains.reduce((s, g) => s + (g - mean) ** 2, 0) / (gains.length - 1));
-  if (!(sd > 0)) return mean > 0 ? Infinity : 0;
-  return mean / (sd / Math.sqrt(gains.length));
-}
 
