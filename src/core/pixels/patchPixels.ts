@@ -54,6 +54,7 @@ export function patchPixels(parts: MultiPolygonRings, grid: RasterGrid, rule: Pi
 function dropNearEdges(parts: MultiPolygonRings, grid: RasterGrid, coverage: CoverageWindow, buffer: number, keep: Uint8Array): void {
   const { originX: ox, originY: oy, pixelWidth: pw, pixelHeight: ph } = grid;
   const { row0, col0, width, height } = coverage;
+  const buffer2 = buffer * buffer;
   for (const rings of parts) {
     for (const ring of rings) {
       for (let i = 1; i < ring.length; i++) {
@@ -68,7 +69,7 @@ function dropNearEdges(parts: MultiPolygonRings, grid: RasterGrid, coverage: Cov
             if (!keep[at]) continue;
             const x0 = ox + (col0 + c) * pw;
             const y1 = oy - (row0 + r) * ph;
-            if (segmentToBoxDistance(p, q, x0, y1 - ph, x0 + pw, y1) < buffer) keep[at] = 0;
+            if (segmentToBoxDistance2(p[0], p[1], q[0], q[1], x0, y1 - ph, x0 + pw, y1) < buffer2) keep[at] = 0;
           }
         }
       }
@@ -82,15 +83,34 @@ function dropNearEdges(parts: MultiPolygonRings, grid: RasterGrid, coverage: Cov
  * are nearest at a vertex of one of them).
  */
 export function segmentToBoxDistance(p: Position, q: Position, x0: number, y0: number, x1: number, y1: number): number {
-  const pointToBox = (x: number, y: number) => Math.hypot(Math.max(x0 - x, 0, x - x1), Math.max(y0 - y, 0, y - y1));
-  let best = Math.min(pointToBox(p[0], p[1]), pointToBox(q[0], q[1]));
-  const dx = q[0] - p[0], dy = q[1] - p[1];
+  return Math.sqrt(segmentToBoxDistance2(p[0], p[1], q[0], q[1], x0, y0, x1, y1));
+}
+
+function pointToBox2(x: number, y: number, x0: number, y0: number, x1: number, y1: number): number {
+  const dx = x < x0 ? x0 - x : x > x1 ? x - x1 : 0;
+  const dy = y < y0 ? y0 - y : y > y1 ? y - y1 : 0;
+  return dx * dx + dy * dy;
+}
+
+function pointToSegment2(cx: number, cy: number, px: number, py: number, dx: number, dy: number, length2: number): number {
+  let t = length2 === 0 ? 0 : ((cx - px) * dx + (cy - py) * dy) / length2;
+  t = t < 0 ? 0 : t > 1 ? 1 : t;
+  const ex = px + t * dx - cx, ey = py + t * dy - cy;
+  return ex * ex + ey * ey;
+}
+
+/** Squared distance, without allocations (the buffer test runs it per pixel and edge). */
+function segmentToBoxDistance2(px: number, py: number, qx: number, qy: number, x0: number, y0: number, x1: number, y1: number): number {
+  const dx = qx - px, dy = qy - py;
   const length2 = dx * dx + dy * dy;
-  for (const [cx, cy] of [[x0, y0], [x1, y0], [x1, y1], [x0, y1]]) {
-    const t = length2 === 0 ? 0 : Math.max(0, Math.min(1, ((cx - p[0]) * dx + (cy - p[1]) * dy) / length2));
-    best = Math.min(best, Math.hypot(p[0] + t * dx - cx, p[1] + t * dy - cy));
-  }
-  return best;
+  return Math.min(
+    pointToBox2(px, py, x0, y0, x1, y1),
+    pointToBox2(qx, qy, x0, y0, x1, y1),
+    pointToSegment2(x0, y0, px, py, dx, dy, length2),
+    pointToSegment2(x1, y0, px, py, dx, dy, length2),
+    pointToSegment2(x1, y1, px, py, dx, dy, length2),
+    pointToSegment2(x0, y1, px, py, dx, dy, length2),
+  );
 }
 
 /** Marks pixels whose centre is inside (even-odd crossings along each row's centre line). */
