@@ -19,6 +19,6 @@ export const ACTION_KEYS = { u: 'next untagged', i: 'next unsure', t: 'note', g:
 
 /** Single keys the desk uses for something else, so a roster entry cannot take them. */
 export const DESK_KEYS: ReadonlySet<string> = new Set([
-  'p', 'n', 'c', 's', 'v', 'm', 'd', 'w', 'b', 'e', 'f', '?',
+  'p', 'n', 'c', 's', 'v', 'm', 'd', 'w', 'b', 'e', 'f', 'x', '?',
   ...Object.keys(CONFIDENCE_KEYS), ...Object.keys(TOOL_KEYS), ...Object.keys(ACTION_KEYS),
 ]);
