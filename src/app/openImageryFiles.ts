@@ -1,7 +1,8 @@
 import { bandTableFor, bandTableProblem } from '../core/bandTable.ts';
 import { createRenderPool } from '../imagery/renderPool.ts';
-import { Raster } from '../imagery/Raster.ts';
-import type { FileRef, Platform } from '../platform/types.ts';
+import { Raster, type RangeReader } from '../imagery/Raster.ts';
+import { urlReader } from '../imagery/urlSource.ts';
+import type { FileRef } from '../platform/types.ts';
 import { multispectralView, panchromaticView } from './sceneView.ts';
 import type { OpenSite } from './site.ts';
 
@@ -15,7 +16,7 @@ export interface OpenFilesOptions {
  * panchromatic raster, a multiband file the multispectral one. Every problem is told in
  * a line that names its file; nothing opens unless all of them are usable.
  */
-export async function openImageryFiles(platform: Platform, files: FileRef[], options: OpenFilesOptions = {}): Promise<OpenSite> {
+export async function openImageryFiles(platform: RangeReader, files: FileRef[], options: OpenFilesOptions = {}): Promise<OpenSite> {
   const { onProgress = () => {}, signal } = options;
   if (files.length === 0 || files.length > 2) throw new Error(`Pick one or two GeoTIFF files (a panchromatic and a multiband one); got ${files.length}.`);
   const pool = createRenderPool();
@@ -87,6 +88,16 @@ export async function openImageryFiles(platform: Platform, files: FileRef[], opt
     pool.dispose();
     throw error;
   }
+}
+
+/**
+ * Opens one or two GeoTIFFs kept on a server, read by HTTP range requests, as a scene
+ * (the same rules as openImageryFiles).
+ */
+export async function openImageryUrls(urls: string[], options: OpenFilesOptions = {}): Promise<OpenSite> {
+  const reader = urlReader();
+  const files = await Promise.all(urls.map((url) => reader.open(url, options.signal)));
+  return openImageryFiles(reader, files, options);
 }
 
 /** How a panchromatic and a multiband raster disagree (CRS, footprint), or null when they pair. */
