@@ -8,6 +8,9 @@ import { main } from '../../src/cli/main.ts';
 import { writeGeoTiff } from '../../src/core/tiff/writeGeoTiff.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'fellfield-check-'));
+// Reading a scene starts a worker and the last test a whole process: generous limits, so
+// a busy machine does not fail them (nothing here measures time).
+const SLOW = { timeout: 60_000 };
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 const square = (x: number, y: number, s: number) => [[[x, y], [x + s, y], [x + s, y + s], [x, y + s], [x, y]]];
@@ -68,7 +71,7 @@ describe('fellfield check', () => {
     expect(invalid.geometry).toEqual({ type: 'Point', coordinates: [600032, 5100004] });
   });
 
-  it('uses the scene grids for pure pixels and the image edge', async () => {
+  it('uses the scene grids for pure pixels and the image edge', SLOW, async () => {
     const { code, stdout } = await run(collection(site), '--scene', scene(), '--json');
     expect(code).toBe(0);
     const doc = JSON.parse(stdout);
@@ -104,7 +107,7 @@ describe('fellfield check', () => {
     expect(JSON.parse(stdout).crs).toBe('EPSG:32632');
   });
 
-  it('names the file and the problem on bad input, exit 2', async () => {
+  it('names the file and the problem on bad input, exit 2', SLOW, async () => {
     const cases: [string[], RegExp][] = [
       [[join(dir, 'missing.geojson')], /missing\.geojson: cannot read the file \(no such file\)$/],
       [[write('bad.geojson', '{"type":')], /bad\.geojson: not valid JSON/],
@@ -124,7 +127,7 @@ describe('fellfield check', () => {
     }
   });
 
-  it('refuses a scene whose two rasters are in different CRSs', async () => {
+  it('refuses a scene whose two rasters are in different CRSs', SLOW, async () => {
     const other = writeGeoTiff({ width: 4, height: 4, sampleType: 'uint8', bands: [new Uint8Array(16)], epsg: 32633, origin: [0, 40], pixelSize: [10, 10], overviewFactors: [] });
     const pan = scene().split(',')[0];
     const { code, stderr } = await run(collection(site), '--scene', `${pan},${write('other.tif', other)}`);
@@ -132,7 +135,7 @@ describe('fellfield check', () => {
     expect(stderr).toMatch(/other\.tif: its CRS \(EPSG:32633\) differs/);
   });
 
-  it('runs as the installed command with the same exit codes', () => {
+  it('runs as the installed command with the same exit codes', SLOW, () => {
     const bin = join(process.cwd(), 'bin/fellfield.mjs');
     const file = collection(site);
     let status = 0;

@@ -59,7 +59,7 @@ function randomEdit(random: Random, patch: PatchInput): PatchInput {
 
 describe('CheckSession: incremental re-check', () => {
   for (const seed of [1, 2, 3]) {
-    it(`ends where a full re-check ends after 300 random edits (seed ${seed})`, () => {
+    it(`ends where a full re-check ends after 300 random edits (seed ${seed})`, { timeout: 60_000 }, () => {
       const random = new Random(100 + seed);
       const patches = new Map(testSite(400, seed).map((p) => [p.id, p]));
       const session = new CheckSession({ scene });
