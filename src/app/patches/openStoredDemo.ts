@@ -1,6 +1,7 @@
 import { sha256Hex } from '../../core/ledger/sha256.ts';
 import { buildImport, proposeMapping, readFieldFile } from '../../core/imports/index.ts';
-import type { EventDraft, EventPayloads, RosterEntry, SceneRef } from '../../core/site/index.ts';
+import type { EventDraft, RosterEntry, SceneRef } from '../../core/site/index.ts';
+import { withOwnIds } from './importFieldFile.ts';
 import type { Platform } from '../../platform/types.ts';
 import { SiteStore, type StoreOptions } from '../../store/SiteStore.ts';
 import { StorageError } from '../../store/StorageError.ts';
@@ -91,26 +92,11 @@ async function completeDemo(store: SiteStore, platform: Platform, imagery: OpenS
       confidence: 'sure',
       display: { composite: 'none (called in the field)', stretch: 'none', date: 'the survey' },
     });
-    await commit({ kind: 'import.added', payload: withFieldIds(payload) });
+    await commit({ kind: 'import.added', payload: withOwnIds(payload, state()) });
   }
   if (state().passes.get(FIELD_PASS_ID)?.endedAt === null) {
     await commit({ kind: 'pass.ended', payload: { passId: FIELD_PASS_ID, time: time() } });
   }
-}
-
-/**
- * The crew's own polygon ids (F001, ...) as patch ids, so the desk, the field sheet and
- * the checks speak of the same patch; kept only when every one is present and unique.
- */
-export function withFieldIds(payload: EventPayloads['import.added']): EventPayloads['import.added'] {
-  const ids = payload.patches.map((p) => (p.source.kind === 'import' ? String(p.source.attributes.id ?? '') : ''));
-  if (ids.some((id) => id === '') || new Set(ids).size !== ids.length) return payload;
-  const rename = new Map(payload.patches.map((p, i) => [p.id, ids[i]]));
-  return {
-    ...payload,
-    patches: payload.patches.map((p) => ({ ...p, id: rename.get(p.id)! })),
-    tags: payload.tags.map((t) => ({ ...t, patchId: rename.get(t.patchId) ?? t.patchId })),
-  };
 }
 
 /** The demo's imagery joined with its stored site: closing the site closes both. */

@@ -37,19 +37,31 @@ export class StoredPatchLayer {
   #showImported = true;
   #known = new Map<string, PatchFeatureData>();
 
-  constructor(looks: SpeciesLook[]) {
-    const style = patchLookStyle(looks);
+  #style: ReturnType<typeof patchLookStyle>;
+  #looks: readonly SpeciesLook[];
+
+  constructor(looks: readonly SpeciesLook[]) {
+    this.#looks = looks;
+    this.#style = patchLookStyle([...looks]);
     this.layer = new VectorLayer({
       source: this.source,
       className: 'stored-patches-layer',
       style: (feature) => {
         const data = this.#known.get(String(feature.getId()));
         if (!data || (data.imported && !this.#showImported && !data.look.selected)) return undefined;
-        return style(data.look);
+        return this.#style(data.look);
       },
       updateWhileAnimating: false,
       updateWhileInteracting: false,
     });
+  }
+
+  /** New species colours (the roster changed); the same list is a no-op. */
+  setLooks(looks: readonly SpeciesLook[]): void {
+    if (looks === this.#looks) return;
+    this.#looks = looks;
+    this.#style = patchLookStyle([...looks]);
+    this.layer.changed();
   }
 
   setShowImported(show: boolean): void {

@@ -1,5 +1,5 @@
 import type { SiteStore } from '../../store/SiteStore.ts';
-import { emptySiteState, type Confidence, type DisplaySettings, type SiteState, type Tag } from '../../core/site/index.ts';
+import { emptySiteState, type Confidence, type DisplaySettings, type RosterEntry, type SiteState, type Tag } from '../../core/site/index.ts';
 import type { MultiPolygonRings } from '../../core/geometry/types.ts';
 import type { RasterGrid } from '../../core/geometry/rasterGrid.ts';
 import { findPatchId, hiddenPasses, nextMatching, patchOrder, shownTag, tagsByPatch } from '../../app/patches/patchIndex.ts';
@@ -8,7 +8,9 @@ import { addPatch, deletePatch, editPatchGeometry, mergePatches, splitPatch, typ
 import { tagPatch, type TagChange } from '../../app/patches/tagPatch.ts';
 import { openPassOf } from '../../app/patches/passes.ts';
 import { measureOutline, type OutlineMeasure } from '../../app/patches/liveMeasure.ts';
-import { ACTION_KEYS, CONFIDENCE_KEYS, TOOL_KEYS, type Tool } from './patchKeys.ts';
+import { ACTION_KEYS, CONFIDENCE_KEYS, DESK_KEYS, TOOL_KEYS, type Tool } from './patchKeys.ts';
+import { setRoster } from '../../app/patches/rosterEdits.ts';
+import { commitFieldImport, type ImportChoices, type ReadFieldFile } from '../../app/patches/importFieldFile.ts';
 
 export type SaveStatus = 'saved' | 'saving' | 'failed';
 
@@ -180,6 +182,22 @@ export class PatchDesk {
     const id = this.selectedId;
     if (!id || (this.ownTagOf(id)?.note ?? '') === note) return Promise.resolve();
     return this.tag({ note });
+  }
+
+  /** Replaces the roster; refused whole with every problem listed (see rosterEdits.ts). */
+  saveRoster(entries: RosterEntry[]): Promise<void> {
+    return this.#save(() => setRoster(this.#store, entries, DESK_KEYS, this.#actor()));
+  }
+
+  /** Imports a read field file with the user's mapping; true once it is stored. */
+  async importField(read: ReadFieldFile, choices: Omit<ImportChoices, 'interpreter' | 'time'>): Promise<boolean> {
+    let done = false;
+    await this.#save(async () => {
+      const added = await commitFieldImport(this.#store, read, { ...choices, interpreter: this.interpreter, time: this.#now() });
+      this.notice = `${read.picked.name}: ${added.patches} patches (${added.tags} tagged) and ${added.references} reference features imported.`;
+      done = true;
+    });
+    return done;
   }
 
   undo(): Promise<void> {

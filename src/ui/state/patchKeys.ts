@@ -1,5 +1,5 @@
 // The desk's patch keys (listed for users in src/ui/shortcuts.ts). They keep clear of the
-// imagery keys (P N C S V M D W B E), the field toggle (F) and help (?), and a roster
+// imagery keys (P N C S V M D W B E), the field toggle (F), the findings (X) and help (?), and a roster
 // entry may not take any of them.
 
 export const CONFIDENCE_KEYS = { h: 'sure', j: 'likely', k: 'unsure' } as const;

@@ -23,7 +23,9 @@ const FOCUS_SPAN_M = 40;
  * and "go to a patch" moves the view.
  */
 export function attachPatchEditing(map: Map, desk: PatchDesk, looks: SpeciesLook[], onPick?: (patch: PickedPatch | null) => void) {
-  const patches = new StoredPatchLayer(looks);
+  // Colours come from the stored roster (so an edited roster recolours the map), and
+  // from the site's files until a roster is stored.
+  const patches = new StoredPatchLayer(desk.roster.length ? desk.roster : looks);
   map.addLayer(patches.layer);
   let active: Interaction[] = [];
   let current: { tool: Tool; selected: string | null; snap: boolean } | null = null;
@@ -53,6 +55,7 @@ export function attachPatchEditing(map: Map, desk: PatchDesk, looks: SpeciesLook
   };
 
   const follow = () => {
+    if (desk.roster.length) patches.setLooks(desk.roster);
     patches.sync(desk.features().map((f) => ({
       id: f.id,
       geometry: f.geometry,
