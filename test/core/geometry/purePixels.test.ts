@@ -52,7 +52,8 @@ describe('countPurePixels', () => {
     expect(countPurePixels([[square(0, 0, 10)]], g, 3)).toBe(3);
   });
 
-  it('matches a brute-force JSTS covers test on random crown outlines', () => {
+  // The brute force relates every cell with JSTS: slow on a busy machine, so a wide limit.
+  it('matches a brute-force JSTS covers test on random crown outlines', { timeout: 60_000 }, () => {
     const random = new Random(42);
     for (let t = 0; t < 60; t++) {
       const cx = 600010 + random.uniform(-2, 2);
@@ -70,7 +71,7 @@ describe('countPurePixels', () => {
     }
   });
 
-  it('matches brute force on outlines drawn along pixel edges', () => {
+  it('matches brute force on outlines drawn along pixel edges', { timeout: 60_000 }, () => {
     const random = new Random(7);
     for (let t = 0; t < 30; t++) {
       // Rectilinear outlines on the grid lines (and half-way between), the hardest ties.
