@@ -8,7 +8,8 @@ import { EXPORT_FORMATS, exportSite, type ExportFile, type ExportFormat, type Ex
 import type { ExportOptions, ExportSelection } from '../../core/export/options.ts';
 import { readSiteFile, type OpenedSite } from '../../core/export/siteFile.ts';
 import { DEFAULT_BUFFER_M, DEFAULT_MIN_COVER, ruleProblem, type PixelRule } from '../../core/pixels/rule.ts';
-import { groupScheme, schemeProblem, type Scheme } from '../../core/training/scheme.ts';
+import { schemeProblem, type Scheme } from '../../core/training/scheme.ts';
+import { namedSchemes } from '../../core/export/namedSchemes.ts';
 import { InputError } from '../errors.ts';
 import { inspectInWorker } from '../inspectInWorker.ts';
 import { parseVerbArgs, type Verb } from '../verb.ts';
@@ -100,13 +101,12 @@ function readSiteText(path: string): string {
 
 /** A scheme by name over the site's roster, or read from a JSON file. */
 function schemeOf(value: string | undefined, opened: OpenedSite): Scheme | null {
-  if (value === undefined || value === 'species') return null;
-  const roster = opened.state.roster;
-  if (value === 'groups') return { name: 'groups', classOf: Object.fromEntries(roster.map((e) => [e.code, e.group])) };
-  const groups = [...new Set(roster.map((e) => e.group))];
-  if (groups.includes(value)) return groupScheme(roster, value);
+  if (value === undefined) return null;
+  const named = namedSchemes(opened.state.roster);
+  const found = named.find((n) => n.name === value);
+  if (found) return found.scheme;
   if (!value.endsWith('.json')) {
-    throw new InputError(`--scheme: unknown scheme '${value}' (species, groups, ${groups.join(', ')}, or a .json file)`);
+    throw new InputError(`--scheme: unknown scheme '${value}' (${named.map((n) => n.name).join(', ')}, or a .json file)`);
   }
   let scheme: Scheme;
   try {

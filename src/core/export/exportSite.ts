@@ -78,8 +78,10 @@ export async function exportSite(opened: OpenedSite, options: ExportOptions, run
   const dataName = `${base}.${run.format}`;
   const historyName = `${base}.site.json`;
   const leftOut = records.leftOut.map((l) => ({ reason: l.reason, count: l.ids.length }));
+  const dataSha = await sha256Hex(data);
+  const historySha = await sha256Hex(history);
   const prov = provDocument(state, events, records.patches, {
-    file: dataName, format: run.format, sha256: await sha256Hex(data), historyFile: historyName, historySha256: await sha256Hex(history),
+    file: dataName, format: run.format, sha256: dataSha, historyFile: historyName, historySha256: historySha,
     time: run.time, appVersion: run.appVersion, options: recorded, leftOut,
   });
   const provBytes = encoder.encode(`${JSON.stringify(prov, null, 1)}\n`);
@@ -89,8 +91,8 @@ export async function exportSite(opened: OpenedSite, options: ExportOptions, run
     { name: `${base}.prov.json`, bytes: provBytes, role: 'provenance' },
   ];
   progress('done', 3, 3);
-  const listed = [];
-  for (const f of files) listed.push({ name: f.name, role: f.role, bytes: f.bytes.length, sha256: await sha256Hex(f.bytes) });
+  const hashes = [dataSha, historySha, await sha256Hex(provBytes)];
+  const listed = files.map((f, i) => ({ name: f.name, role: f.role, bytes: f.bytes.length, sha256: hashes[i] }));
   return {
     files,
     summary: {

@@ -41,19 +41,20 @@ function lonLatRing(ring: Ring, project: (xy: [number, number]) => [number, numb
   return out;
 }
 
+type Projector = (xy: [number, number]) => [number, number];
+
 /** Parts in the site CRS to RFC 7946 MultiPolygon coordinates. */
-export function lonLatParts(parts: MultiPolygonRings, epsg: number, decimals = GEOJSON_DECIMALS): MultiPolygonRings {
-  const project = transformer(epsg, 4326);
+export function lonLatParts(parts: MultiPolygonRings, epsg: number, decimals = GEOJSON_DECIMALS, project: Projector = transformer(epsg, 4326)): MultiPolygonRings {
   const scale = 10 ** decimals;
   return parts.map((rings) => rings.map((ring, i) => lonLatRing(ring, project, scale, i === 0)));
 }
 
-function featureLine(p: ExportedPatch, epsg: number): string {
+function featureLine(p: ExportedPatch, epsg: number, project: Projector): string {
   const { patch_id: _id, ...scalars } = scalarValues(p);
   const feature = {
     type: 'Feature',
     id: p.id,
-    geometry: { type: 'MultiPolygon', coordinates: lonLatParts(p.geometry, epsg) },
+    geometry: { type: 'MultiPolygon', coordinates: lonLatParts(p.geometry, epsg, GEOJSON_DECIMALS, project) },
     properties: { ...scalars, ...structuredValues(p) },
   };
   return JSON.stringify(feature);
@@ -67,6 +68,8 @@ export function geojsonText(patches: readonly ExportedPatch[], header: GeoJsonHe
     coordinate_decimals: GEOJSON_DECIMALS,
     options: header.options,
   };
-  const lines = patches.map((p) => featureLine(p, header.site.epsg));
+  // One transformer for the whole file: building one costs far more than a point.
+  const project = transformer(header.site.epsg, 4326);
+  const lines = patches.map((p) => featureLine(p, header.site.epsg, project));
   return `{"type":"FeatureCollection","fellfield":${JSON.stringify(meta)},"features":[\n${lines.join(',\n')}\n]}\n`;
 }

@@ -69,7 +69,9 @@ export function geopackageBytes(SQL: SqlJsStatic, patches: readonly ExportedPatc
   const srs = srsRow(epsg);
   const db = new SQL.Database();
   try {
-    db.run(`PRAGMA application_id = ${GPKG_APPLICATION_ID}; PRAGMA user_version = ${GPKG_USER_VERSION};`);
+    // No rollback journal: a failed export is thrown away whole, and the journal's page
+    // copies would cost more than the table itself.
+    db.run(`PRAGMA journal_mode = OFF; PRAGMA application_id = ${GPKG_APPLICATION_ID}; PRAGMA user_version = ${GPKG_USER_VERSION};`);
     db.run('BEGIN');
     db.run(SCHEMA);
     const srsInsert = 'INSERT INTO gpkg_spatial_ref_sys VALUES (?, ?, ?, ?, ?, ?)';
