@@ -49,7 +49,9 @@ function invalidFinding(patch: PreparedPatch): Finding | null {
     reasons,
     fix: tooBig
       ? { action: 'simplify', target: input.id, text: `redraw patch ${input.id} with fewer vertices` }
-      : { action: 'repair', target: input.id, text: `make patch ${input.id} valid: ${repairText}` },
+      : patch.repair && patch.repair.rings.length === 0
+        ? { action: 'delete', target: input.id, text: `delete or redraw patch ${input.id}: nothing with area is left to repair (${repairText})` }
+        : { action: 'repair', target: input.id, text: `make patch ${input.id} valid: ${repairText}` },
     details: patch.repair
       ? { repairedAreaM2: round(patch.repair.areaAfter), repairedParts: patch.repair.rings.length, repairChanges: patch.repair.changes }
       : {},

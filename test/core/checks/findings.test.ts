@@ -178,6 +178,9 @@ describe('invalid and degenerate outlines never crash', () => {
       empty: ['too-few-points'], hollow: ['too-few-points'], open: ['ring-not-closed'],
     });
     expect(JSON.parse(JSON.stringify(findings))).toHaveLength(findings.length);
+    // Nothing is left of a collinear outline: the fix is to delete or redraw it.
+    expect(findings.find((f) => f.patches[0] === 'line')!.fix.action).toBe('delete');
+    expect(findings.find((f) => f.patches[0] === 'open')!.fix.action).toBe('repair');
   });
 
   it('an outline of a million vertices is reported and not taken apart', () => {
