@@ -19,7 +19,9 @@ export interface OffsetSettings {
   /** Coarse lattice step, metres (default: two panchromatic pixels). */
   coarseStep: number;
   /** The fine lattice divides the coarse step by this (default 8: a quarter of a
-   * panchromatic pixel) and spans one coarse step either side of the coarse peak. */
+   * panchromatic pixel); a middle lattice of twice that step spans one coarse step
+   * either side of the coarse peak, the final one two steps either side of the middle
+   * peak. */
   refine: number;
   /** Sample-point spacing inside and around the polygons, metres (default: a third of
    * the signal pixel, at least one panchromatic pixel). */
@@ -165,7 +167,9 @@ export function estimateFromTemplates(templates: readonly PatchTemplate[], grid:
     if (!coarseBest) break;
     const [cx, cy] = nodeShift(coarse, coarseBest.node);
     if (!fine || fine.cx !== cx || fine.cy !== cy) {
-      fine = { cx, cy, step: settings.coarseStep / settings.refine, half: settings.refine, radius: settings.radius };
+      // The middle lattice: half the final step, one coarse step either side.
+      const half = Math.max(1, Math.round(settings.refine / 2));
+      fine = { cx, cy, step: settings.coarseStep / half, half, radius: settings.radius };
       perFine = evaluateLattice(templates, grid, fine);
     }
     peak = latticePeak(combine(perFine, n, latticeNodes(fine), inlier), fine);
@@ -185,6 +189,14 @@ export function estimateFromTemplates(templates: readonly PatchTemplate[], grid:
   }
 
   const members = [...inlier.keys()].filter((i) => inlier[i] === 1);
+  // The final lattice: the final step, two nodes either side of the middle peak's node.
+  let finalPeak: ReturnType<typeof latticePeak> = null;
+  if (peak && fine) {
+    const [fx, fy] = nodeShift(fine, peak.node);
+    const last: ShiftLattice = { cx: fx, cy: fy, step: settings.coarseStep / settings.refine, half: 2, radius: settings.radius };
+    finalPeak = latticePeak(combine(evaluateLattice(templates, grid, last), n, latticeNodes(last), inlier), last);
+    if (finalPeak && !finalPeak.fitted) finalPeak = null;
+  }
   let significance = 0;
   let bootstrap: BootstrapSummary | null = null;
   if (!coarseBest || !peak || !fine) {
@@ -194,7 +206,7 @@ export function estimateFromTemplates(templates: readonly PatchTemplate[], grid:
     if (onRim(fine, peak.node)) {
       reasons.push(`the best fit lies on the edge of the ${settings.radius} m search radius: the shift may be larger`);
     }
-    if (!peak.fitted) reasons.push('the score surface has no clear peak (its fitted curvature is not a maximum)');
+    if (!peak.fitted || !finalPeak) reasons.push('the score surface has no clear peak (its fitted curvature is not a maximum)');
     // Over all patches: the inliers were chosen for agreeing, which would flatter them.
     significance = peakSignificance(perCoarse, [...templates.keys()], coarse, settings.surrogates, settings.seed + 1);
     if (!(significance >= settings.minSignificance)) {
@@ -228,9 +240,9 @@ export function estimateFromTemplates(templates: readonly PatchTemplate[], grid:
   return {
     reliable,
     reasons,
-    dx: reliable && peak ? peak.shift[0] : null,
-    dy: reliable && peak ? peak.shift[1] : null,
-    candidate: peak ? peak.shift : null,
+    dx: reliable && finalPeak ? finalPeak.shift[0] : null,
+    dy: reliable && finalPeak ? finalPeak.shift[1] : null,
+    candidate: finalPeak ? finalPeak.shift : peak ? peak.shift : null,
     uncertainty: reliable && bootstrap ? bootstrap.radius95 : null,
     bootstrap,
     significance,
