@@ -1,7 +1,8 @@
 // Imagery benchmarks (issue 3): the pan-sharpened tile's band math, and the deflate
 // decode rate per core and across two worker threads, each beside its floor or
 // baseline in the same run. The browser benchmarks (first screen, pan step, memory,
-// UI-thread blocking) are in bench/imagery/browser.ts.
+// UI-thread blocking) are in bench/imagery/browser.ts; the large scene (pan 16384 x
+// 16384, 8-band 4096 x 4096) is generated on the first `--size large` run.
 import { Worker } from 'node:worker_threads';
 import { inflateSync } from 'node:zlib';
 import { decodeTile } from '../src/core/tiff/decodeTile.ts';
@@ -9,6 +10,7 @@ import { compositeRgba } from '../src/core/render/composite.ts';
 import { brovey, fastIhs, upsampleNearest } from '../src/core/render/pansharpen.ts';
 import { result, seeded, time, type BenchResult, type Benchmark, type BenchSize } from './harness.ts';
 import { encodedScene, seededBand } from './imagery/scene.ts';
+import { browserBenchmarks } from './imagery/browser.ts';
 
 const limits = [0, 1, 2].map(() => ({ min: 80, max: 900, gamma: 1 }));
 
@@ -79,4 +81,4 @@ const decode: Benchmark = {
 
 // seeded is re-exported for the browser bench's scene generator.
 export { seeded };
-export const benchmarks: Benchmark[] = [tile, decode];
+export const benchmarks: Benchmark[] = [tile, decode, ...browserBenchmarks];

@@ -1,0 +1,163 @@
+// Imagery benchmarks in headless Chromium (no GPU): the app opens a generated site
+// (bench/imagery/browserScene.ts) from a local server, as it opens the demo.
+//   imagery.first-screen: navigation to the whole extent drawn (natural colour).
+//   imagery.pan-step: one screen's pan at full resolution in the pan-sharpened view.
+// Each beside its floor measured in the same run: decoding, in this process with the
+// render worker's decoder, the very blocks the page fetched for that screen, divided by
+// the app's two render workers. Memory (JS heap after the pan steps) and the longest
+// task on the UI thread ride along on the pan-step line.
+import { join, resolve } from 'node:path';
+import { readFileSync } from 'node:fs';
+import { chromium, type Page } from 'playwright-core';
+import { build } from 'vite';
+import { inspectTiff, type TiffSummary } from '../../src/core/tiff/inspectTiff.ts';
+import { blockLayout } from '../../src/core/tiff/blocks.ts';
+import { decodeTile } from '../../src/core/tiff/decodeTile.ts';
+import { result, summarize, type BenchResult, type BenchSize, type Benchmark } from '../harness.ts';
+import { benchSite, type BenchSite } from './browserScene.ts';
+
+const repo = resolve(import.meta.dirname, '../..');
+const POOL_SIZE = 2; // createRenderPool on a 2- or 3-core machine
+
+interface OpenFile {
+  bytes: Uint8Array;
+  summary: TiffSummary;
+  /** Block by its byte offset: level and index. */
+  blocks: Map<number, { level: number; index: number }>;
+}
+
+async function openFile(site: BenchSite, name: string): Promise<OpenFile> {
+  const bytes = new Uint8Array(readFileSync(join(site.dir, name)));
+  const summary = await inspectTiff(async (o, n) => bytes.subarray(o, o + n), bytes.length, name);
+  const blocks = new Map<number, { level: number; index: number }>();
+  summary.levels.forEach((level, l) => level.offsets.forEach((offset, index) => blocks.set(offset, { level: l, index })));
+  return { bytes, summary, blocks };
+}
+
+/** Decode time (ms) of the blocks among the ranges the page read, spread over the pool. */
+function decodeFloor(files: Record<string, OpenFile>, reads: { file: string; offset: number }[]): { ms: number; blocks: number } {
+  const jobs: { bytes: Uint8Array; layout: ReturnType<typeof blockLayout> }[] = [];
+  for (const { file, offset } of reads) {
+    const f = files[file];
+    const block = f?.blocks.get(offset);
+    if (!block) continue; // a header read
+    const length = f.summary.levels[block.level].byteCounts[block.index];
+    jobs.push({ bytes: f.bytes.slice(offset, offset + length), layout: blockLayout(f.summary, block.level, block.index) });
+  }
+  for (const job of jobs.slice(0, 4)) decodeTile(job.bytes, job.layout); // warm
+  const start = performance.now();
+  for (const job of jobs) decodeTile(job.bytes, job.layout);
+  return { ms: (performance.now() - start) / POOL_SIZE, blocks: jobs.length };
+}
+
+async function ready(page: Page) {
+  await page.waitForTimeout(50);
+  await page.waitForSelector('[data-testid="map"][data-ready="true"]', { timeout: 120_000 });
+}
+
+export async function runBrowserBenchmarks(size: BenchSize): Promise<BenchResult[]> {
+  const site = benchSite(size === 'large' ? 16384 : 4096);
+  const files = { 'pan.tif': await openFile(site, 'pan.tif'), 'ms.tif': await openFile(site, 'ms.tif') };
+  const outDir = join(site.dir, 'dist');
+  await build({ root: repo, logLevel: 'error', build: { outDir, emptyOutDir: true } });
+  const { startServer } = await import(join(repo, 'scripts', 'serve.mjs'));
+  const server = await startServer({ port: 0, root: outDir, demoDir: site.dir });
+  const browser = await chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', headless: true,
+    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--enable-precise-memory-info'],
+  });
+  try {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    const page = await context.newPage();
+    await page.addInitScript(() => {
+      const w = window as unknown as { longestTask: number };
+      w.longestTask = 0;
+      new PerformanceObserver((list) => {
+        for (const entry of list.getEntries()) w.longestTask = Math.max(w.longestTask, entry.duration);
+      }).observe({ type: 'longtask', buffered: true });
+    });
+    let reads: { file: string; offset: number }[] = [];
+    page.on('request', (request) => {
+      const range = /^bytes=(\d+)-/.exec(request.headers()['range'] ?? '');
+      const file = request.url().split('/').pop()!;
+      if (range && file in files) reads.push({ file, offset: Number(range[1]) });
+    });
+
+    // First screen: navigation to the whole extent drawn; a warm-up, then five.
+    const firsts: number[] = [];
+    const firstFloors: number[] = [];
+    let firstBlocks = 0;
+    for (let run = 0; run < 6; run++) {
+      reads = [];
+      const start = performance.now();
+      await page.goto(server.url);
+      await ready(page);
+      const ms = performance.now() - start;
+      if (run === 0) continue;
+      firsts.push(ms);
+      const floor = decodeFloor(files, reads);
+      firstFloors.push(floor.ms);
+      firstBlocks = floor.blocks;
+    }
+
+    // Full resolution, pan-sharpened: zoom in at the centre, then pan one screen at a time.
+    const map = (await page.locator('[data-testid="map"]').boundingBox())!;
+    await page.mouse.move(map.x + map.width / 2, map.y + map.height / 2);
+    for (let i = 0; i < 14; i++) {
+      await page.mouse.wheel(0, -300);
+      await page.waitForTimeout(120);
+    }
+    await page.keyboard.press('s');
+    await ready(page);
+    await page.evaluate(() => ((window as unknown as { longestTask: number }).longestTask = 0));
+    const steps: number[] = [];
+    const stepFloors: number[] = [];
+    const levels = new Set<number>();
+    const moves: [number, number][] = [[-1, 0], [-1, 0], [0, -1], [1, 0], [1, 0], [0, -1], [-1, 0]];
+    for (const [dx, dy] of moves) {
+      reads = [];
+      const x0 = map.x + map.width / 2, y0 = map.y + map.height / 2;
+      const x1 = x0 + dx * (map.width - 40), y1 = y0 + dy * (map.height - 40);
+      // Drag one screen less a margin, held still before release so no kinetic fling
+      // follows. Timed from the press: tiles start loading while the drag goes on.
+      await page.mouse.move(x0, y0);
+      const start = performance.now();
+      await page.mouse.down();
+      await page.mouse.move(x1, y1, { steps: 3 });
+      await page.waitForTimeout(60);
+      await page.mouse.up();
+      await ready(page);
+      steps.push(performance.now() - start);
+      const floor = decodeFloor(files, reads);
+      stepFloors.push(floor.ms);
+      for (const r of reads) {
+        const block = files[r.file as 'pan.tif']?.blocks.get(r.offset);
+        if (block && r.file === 'pan.tif') levels.add(block.level);
+      }
+    }
+    const heap = await page.evaluate(() => (performance as unknown as { memory?: { usedJSHeapSize: number } }).memory?.usedJSHeapSize ?? 0);
+    const longest = await page.evaluate(() => (window as unknown as { longestTask: number }).longestTask);
+    await context.close();
+
+    const n = (site.panSize * site.panSize) / 1e6;
+    const first = summarize(firsts), firstFloor = summarize(firstFloors);
+    const step = summarize(steps.slice(1)), stepFloor = summarize(stepFloors.slice(1));
+    return [
+      result('imagery.first-screen', firstBlocks, first, 'decode of the blocks that screen read, over 2 workers (floor)', firstFloor, {
+        pan_mpix: n, viewport: [1280, 800], target_ms: 1000, target_ratio: 1 / 1.5,
+      }),
+      result('imagery.pan-step', steps.length - 1, step, 'decode of the blocks each step read, over 2 workers (floor)', stepFloor, {
+        pan_levels_read: [...levels].sort(), target_ms: 300, target_ratio: 1 / 1.5,
+        js_heap_mb: Math.round(heap / 1e5) / 10, longest_ui_task_ms: Math.round(longest), target_longest_task_ms: 50,
+      }),
+    ];
+  } finally {
+    await browser.close();
+    await server.close();
+  }
+}
+
+export const browserBenchmarks: Benchmark[] = [
+  { name: 'imagery.first-screen', run: (size) => runBrowserBenchmarks(size).then((lines) => lines.filter((l) => l.bench === 'imagery.first-screen')) },
+  { name: 'imagery.pan-step', run: (size) => runBrowserBenchmarks(size).then((lines) => lines.filter((l) => l.bench === 'imagery.pan-step')) },
+];
