@@ -1,7 +1,7 @@
 // The pages of an open site, in the order the bar shows them. A page is listed only
 // once it works; add yours here and render it in App.svelte.
 
-export type Surface = 'desk' | 'sheets' | 'export' | 'help';
+export type Surface = 'desk' | 'sheets' | 'help';
 
 export interface SurfaceEntry {
   id: Surface;
@@ -10,7 +10,6 @@ export interface SurfaceEntry {
 
 export const surfaces: SurfaceEntry[] = [
   { id: 'desk', label: 'Desk' },
-  { id: 'export', label: 'Export' },
   { id: 'sheets', label: 'Training sheet' },
   { id: 'help', label: 'Keys and cautions' },
 ];
