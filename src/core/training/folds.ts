@@ -141,6 +141,7 @@ export function assignFolds(patches: readonly FoldPatch[], options: FoldOptions 
   const target = totals.map((t) => t / k);
   const foldWeights = Array.from({ length: k }, () => new Array(classes).fill(0));
   const foldTotals = new Array(k).fill(0);
+  const foldPatches = new Array(k).fill(0);
 
   const random = new Random(seed);
   const order = random.shuffle(blocks.map((_, b) => b));
@@ -158,7 +159,9 @@ export function assignFolds(patches: readonly FoldPatch[], options: FoldOptions 
         if (w[c] === 0 || target[c] === 0) continue;
         cost += (w[c] * (2 * (foldWeights[f][c] - target[c]) + w[c])) / target[c];
       }
-      if (cost < bestCost - 1e-12 || (Math.abs(cost - bestCost) <= 1e-12 && foldTotals[f] < foldTotals[best])) {
+      // Ties (blocks of weight 0 tie everywhere) go to the fold with fewer patches, then less weight.
+      const tie = Math.abs(cost - bestCost) <= 1e-12;
+      if (cost < bestCost - 1e-12 || (tie && (foldPatches[f] < foldPatches[best] || (foldPatches[f] === foldPatches[best] && foldTotals[f] < foldTotals[best])))) {
         best = f;
         bestCost = cost;
       }
@@ -166,6 +169,7 @@ export function assignFolds(patches: readonly FoldPatch[], options: FoldOptions 
     blocks[b].fold = best;
     for (let c = 0; c < classes; c++) foldWeights[best][c] += w[c];
     foldTotals[best] += blockTotal[b];
+    foldPatches[best] += blocks[b].patches;
   }
   for (let i = 0; i < n; i++) if (block[i] >= 0) fold[i] = blocks[block[i]].fold;
 

@@ -84,6 +84,14 @@ describe('assignFolds', () => {
     expect(Array.from(other.fold)).not.toEqual(Array.from(assignment.fold));
   });
 
+  it('spreads patches of no weight (no pure pixels) evenly instead of piling them in one fold', () => {
+    const weightless = patches.map((p) => ({ ...p, weight: 0 }));
+    const a = assignFolds(weightless, { k: 5, blockSize: 50, seed: 1 });
+    const counts = [0, 0, 0, 0, 0];
+    for (const f of a.fold) counts[f]++;
+    for (const c of counts) expect(Math.abs(c - 600)).toBeLessThan(30);
+  });
+
   it('warns when blocks or a class are too few for the folds', () => {
     const few = assignFolds(site(40, 90), { k: 5, blockSize: 50 });
     expect(few.messages).toContain('only 4 block(s) of 50 m hold patches, fewer than the 5 folds: use smaller blocks');
