@@ -10,6 +10,8 @@ import { openPassOf } from '../../app/patches/passes.ts';
 import { measureOutline, type OutlineMeasure } from '../../app/patches/liveMeasure.ts';
 import { ACTION_KEYS, CONFIDENCE_KEYS, DESK_KEYS, TOOL_KEYS, type Tool } from './patchKeys.ts';
 import { setRoster } from '../../app/patches/rosterEdits.ts';
+import { blindView, openBlindPassOf } from '../../core/blind/index.ts';
+import { tagInBlindPass } from '../../app/blind/blindPasses.ts';
 import { commitFieldImport, type ImportChoices, type ReadFieldFile } from '../../app/patches/importFieldFile.ts';
 
 export type SaveStatus = 'saved' | 'saving' | 'failed';
@@ -36,6 +38,8 @@ export class PatchDesk {
   snap = $state(true);
   interpreter = $state('Interpreter A');
   status = $state<SaveStatus>('saved');
+  /** set while the interpreter's blind pass is paused: its keys do not tag */
+  blindPaused = $state(false);
   /** the last failure, told so a user can act on it */
   error = $state<string | null>(null);
   /** a plain remark on the last key (e.g. nothing left untagged) */
@@ -66,7 +70,18 @@ export class PatchDesk {
   // --- what the screens read ---
 
   get passId(): string | null {
-    return openPassOf(this.state, this.interpreter)?.id ?? null;
+    return this.blindPass?.id ?? openPassOf(this.state, this.interpreter)?.id ?? null;
+  }
+
+  /** The interpreter's open blind pass: while it runs the desk shows the blind view only. */
+  get blindPass() {
+    return openBlindPassOf(this.state, this.interpreter);
+  }
+
+  /** Puts another interpreter at the desk: what they may see is filtered anew (src/core/blind). */
+  setInterpreter(name: string): void {
+    this.interpreter = name;
+    this.#take(this.#store.state);
   }
 
   get roster() {
@@ -171,6 +186,9 @@ export class PatchDesk {
     const id = this.selectedId;
     if (!id) return this.#say('Select a patch first (click it, or U for the next untagged).');
     const context = { interpreter: this.interpreter, time: this.#now(), display: this.#options.display() };
+    const blind = this.blindPass;
+    if (blind && this.blindPaused) return this.#say('The blind pass is paused: resume it to go on tagging.');
+    if (blind) return this.#save(() => tagInBlindPass(this.#store, blind.id, id, change, context));
     return this.#save(() => tagPatch(this.#store, id, change, context));
   }
 
@@ -307,10 +325,11 @@ export class PatchDesk {
   // --- inside ---
 
   #take(state: SiteState): void {
-    this.state = state;
-    this.#tags = tagsByPatch(state);
-    this.#order = patchOrder(state.patches.values());
-    if (this.selectedId && !state.patches.has(this.selectedId)) this.selectedId = null;
+    // Every screen of the desk reads this filtered state: a blind pass hides everyone else's calls.
+    this.state = blindView(state, this.interpreter);
+    this.#tags = tagsByPatch(this.state);
+    this.#order = this.blindPass?.patchIds?.length ? [...this.blindPass.patchIds] : patchOrder(this.state.patches.values());
+    if (this.selectedId && !this.state.patches.has(this.selectedId)) this.selectedId = null;
     this.#changed();
   }
 
