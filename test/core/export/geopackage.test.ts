@@ -77,6 +77,13 @@ describe('GeoPackage file', () => {
     expect(Buffer.from(files[0].bytes).equals(Buffer.from(first))).toBe(true);
   });
 
+  it('the asm.js build of sql.js (the app\'s, under its script policy) writes the same bytes as the wasm build', async () => {
+    const b = await twoPassSite(5);
+    const asm = (await import('sql.js/dist/sql-asm.js')).default;
+    const { files } = await exportSite(b.opened, { selection: { kind: 'consensus' } }, { format: 'gpkg', appVersion: '0.1.0', time: '', sql: await asm() });
+    expect(Buffer.from(files[0].bytes).equals(Buffer.from(await gpkg(b)))).toBe(true);
+  });
+
   it('refuses a CRS it cannot define, naming it', () => {
     expect(() => srsRow(3857)).toThrow(/cannot yet define the site's CRS EPSG:3857/);
   });
