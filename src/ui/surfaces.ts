@@ -1,7 +1,7 @@
 // The pages of an open site, in the order the bar shows them. A page is listed only
 // once it works; add yours here and render it in App.svelte.
 
-export type Surface = 'desk' | 'sheets' | 'help';
+export type Surface = 'desk' | 'sheets' | 'export' | 'help';
 
 export interface SurfaceEntry {
   id: Surface;
@@ -11,5 +11,6 @@ export interface SurfaceEntry {
 export const surfaces: SurfaceEntry[] = [
   { id: 'desk', label: 'Desk' },
   { id: 'sheets', label: 'Training sheet' },
+  { id: 'export', label: 'Export' },
   { id: 'help', label: 'Keys and cautions' },
 ];
