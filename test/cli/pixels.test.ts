@@ -1,6 +1,8 @@
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import Papa from 'papaparse';
 import { afterAll, describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.ts';
 import { writeGeoTiff } from '../../src/core/tiff/writeGeoTiff.ts';
@@ -94,6 +96,40 @@ describe('fellfield pixels', () => {
     expect(stdout).toMatch(/notes\n {2}patch c: the 0.5 m buffer is wider/);
   });
 
+  it('writes the samples and the chips of the pure pixels', async () => {
+    // Bands by place: band b at (row, col) holds 1000 (b + 1) + 20 row + col; pan 0.5 m
+    // pixels hold 4 (row mod 4) + (col mod 4), so each 2 m pixel's sixteen are 0..15:
+    // mean 7.5, population sd sqrt(255 / 12) (discrete uniform, handbook formula).
+    const value = (b: number, i: number) => 1000 * (b + 1) + 20 * Math.floor(i / 20) + (i % 20);
+    const ms = write('ms-values.tif', writeGeoTiff({
+      width: 20, height: 20, sampleType: 'uint16', epsg: 32632, origin: [600000, 5100040], pixelSize: [2, 2], overviewFactors: [],
+      bands: [0, 1, 2, 3].map((b) => Uint16Array.from({ length: 400 }, (_, i) => value(b, i))), bandNames: ['blue', 'green', 'red', 'NIR'],
+    }));
+    const pan = write('pan-values.tif', writeGeoTiff({
+      width: 80, height: 80, sampleType: 'uint16', epsg: 32632, origin: [600000, 5100040], pixelSize: [0.5, 0.5], overviewFactors: [],
+      bands: [Uint16Array.from({ length: 6400 }, (_, i) => 4 * (Math.floor(i / 80) % 4) + (i % 4))],
+    }));
+    const samples = join(dir, 'samples.csv');
+    const chips = join(dir, 'chips');
+    const { code, stdout } = await run(patches, '--scene', ms, '--pan', pan, '--samples', samples, '--chips', chips, '--chip-size', '3', '--json');
+    expect(code).toBe(0);
+    expect(JSON.parse(stdout).written).toEqual([`${samples}: 8 sample(s)`, `${chips}: 4 chip file(s) and index.csv`]);
+    const rows = Papa.parse<Record<string, string>>(readFileSync(samples, 'utf8').trimEnd(), { header: true }).data;
+    expect(rows).toHaveLength(8);
+    const first = rows[0];
+    const i = Number(first.row) * 20 + Number(first.col);
+    expect(Number(first.band_3_red)).toBe(value(2, i));
+    expect(Number(first.ndvi)).toBeCloseTo((value(3, i) - value(2, i)) / (value(3, i) + value(2, i)), 12);
+    expect(Number(first.pan_mean)).toBe(7.5);
+    expect(Number(first.pan_sd)).toBeCloseTo(Math.sqrt(255 / 12), 12);
+    const index = Papa.parse<Record<string, string>>(readFileSync(join(chips, 'index.csv'), 'utf8').trimEnd(), { header: true }).data;
+    expect(index.map((r) => r.file)).toEqual(['a_001_ms.npy', 'a_001_pan.npy', 'b_001_ms.npy', 'b_001_pan.npy']);
+    // numpy 1.24.2 (Debian) reads the chip: 4 bands of 3 x 3 around the centre pixel.
+    const r = Number(index[0].centre_row), c = Number(index[0].centre_col);
+    const out = execFileSync('/usr/bin/python3', ['-c', `import numpy as np; a = np.load(${JSON.stringify(join(chips, 'a_001_ms.npy'))}); print(a.shape, a.dtype, a[1, 1, 1])`], { encoding: 'utf8' });
+    expect(out.trim()).toBe(`(4, 3, 3) uint16 ${value(1, r * 20 + c)}`);
+  });
+
   it('names the file and the problem on bad input, exit 2', async () => {
     const ms = scene();
     const cases: [string[], RegExp][] = [
@@ -105,6 +141,9 @@ describe('fellfield pixels', () => {
       [[join(dir, 'missing.geojson'), '--scene', ms], /missing.geojson: cannot read the file \(no such file\)/],
       [[patches, '--scene', join(dir, 'none.tif')], /none.tif: cannot open the file \(no such file\)/],
       [[write('bad.geojson', '{"type": "Feature"}'), '--scene', ms], /bad.geojson: expected a GeoJSON FeatureCollection/],
+      [[patches, '--scene', ms, '--samples', join(dir, 'out.xlsx')], /--samples: expected a file name ending in .csv or .parquet/],
+      [[patches, '--scene', ms, '--chips', dir, '--chip-format', 'png'], /--chip-format: expected npy or geotiff, got 'png'/],
+      [[patches, '--scene', ms, '--samples', join(dir, 'no', 'such', 'x.csv')], /x.csv: cannot write the file \(ENOENT\)/],
     ];
     for (const [args, message] of cases) {
       const { code, stderr } = await run(...args);
