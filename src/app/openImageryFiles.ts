@@ -1,6 +1,8 @@
 import { bandTableFor, bandTableProblem } from '../core/bandTable.ts';
 import { createRenderPool } from '../imagery/renderPool.ts';
 import { Raster, type RangeReader } from '../imagery/Raster.ts';
+import { viewable } from '../imagery/pyramidCache.ts';
+import { indexedDbTileStore } from '../imagery/tileStore.ts';
 import { urlReader } from '../imagery/urlSource.ts';
 import type { FileRef } from '../platform/types.ts';
 import { multispectralView, panchromaticView } from './sceneView.ts';
@@ -26,11 +28,14 @@ export async function openImageryFiles(platform: RangeReader, files: FileRef[], 
     for (const [i, file] of files.entries()) {
       onProgress({ label: `Opening ${file.name}`, fraction: i / files.length });
       try {
-        const raster = await Raster.open(platform, pool, file, signal);
-        await raster.bandLimits(0, 2, 98, signal); // decodes a small level: a broken file shows itself now
-        if (!raster.summary.georeferenced || raster.summary.epsg === null) {
+        const opened = await Raster.open(platform, pool, file, signal);
+        if (!opened.summary.georeferenced || opened.summary.epsg === null) {
           problems.push(`${file.name}: has no usable georeferencing (CRS and geotransform), so it cannot be placed on the map`);
-        } else rasters.push(raster);
+          continue;
+        }
+        const raster = await viewable(opened, indexedDbTileStore, { signal, onProgress });
+        await raster.bandLimits(0, 2, 98, signal); // decodes a small level: a broken file shows itself now
+        rasters.push(raster);
       } catch (error) {
         if ((error as Error).name === 'AbortError') throw error;
         problems.push((error as Error).message);
