@@ -77,6 +77,20 @@ describe('fellfield export', () => {
     expect((await run(site, '--format', 'geojson', '--out', out, '--open', 'leave-out')).code).toBe(0);
   });
 
+  it('one-pass exports feed fellfield agree: the disagreements the site holds are the ones it counts', async () => {
+    const b = await twoPassSite(20);
+    const site = join(dir, 'two.site.json');
+    writeFileSync(site, siteFileText(b.events));
+    const out = join(dir, 'passes');
+    for (const pass of ['a', 'b']) expect((await run(site, '--format', 'geojson', '--pass', pass, '--name', `pass-${pass}`, '--out', out)).code).toBe(0);
+    let stdout = '';
+    expect(await main(['agree', join(out, 'pass-a.geojson'), join(out, 'pass-b.geojson'), '--json'], { stdout: (t) => { stdout += t; }, stderr: () => {} })).toBe(0);
+    const sheet = JSON.parse(stdout);
+    // Every fifth patch of twoPassSite is called differently in pass b: 4 of 20.
+    expect(sheet.n).toBe(20);
+    expect(sheet.observed).toBeCloseTo(16 / 20, 12);
+  });
+
   it('a folder that cannot be written: one line naming it, exit 2', async () => {
     const blocker = join(dir, 'a-file');
     writeFileSync(blocker, 'x');
