@@ -40,6 +40,7 @@ export const shortcuts: Shortcut[] = [
   { keys: 'Ctrl+Z', action: 'undo the last change (many steps)', where: 'desk' },
   { keys: 'Ctrl+Shift+Z, Ctrl+Y', action: 'redo', where: 'desk' },
   { keys: 'X', action: 'go to the next finding', where: 'desk' },
+  { keys: 'Z', action: "in a blind pass: call the patch in hand “can't tell”", where: 'desk' },
   { keys: 'Shift+X', action: 'go to the previous finding', where: 'desk' },
   { keys: '?', action: 'open this page of keys and cautions', where: 'everywhere' },
   { keys: 'Esc', action: 'back to the desk from another page', where: 'everywhere' },
