@@ -80,7 +80,19 @@ describe('fellfield offset', () => {
     });
   }, 60_000);
 
+  it('--areas reports a shift per cell and whether one shift fits them all', async () => {
+    const { code, stdout } = await cli('offset', site.field, '--scene', scene(), '--json', '--areas', '1');
+    expect(code).toBe(0);
+    const json = JSON.parse(stdout);
+    expect(json.areas.cellsAcross).toBe(1);
+    expect(json.areas.cells).toHaveLength(1);
+    // One cell holding every polygon gives the common estimate again.
+    expect(json.areas.cells[0]).toMatchObject({ polygons: json.polygons, dx: json.dx_m, dy: json.dy_m, agrees: true });
+    expect(json.areas.oneShiftFits).toBeNull();
+  }, 60_000);
+
   const bad: [string, () => string[], RegExp][] = [
+    ['a bad --areas', () => [site.field, '--scene', scene(), '--areas', '2.5'], /--areas takes a whole number of cells across from 1 to 8, got '2\.5'/],
     ['polygons outside the scene', () => [fieldWith('far.geojson', (d) => d.features[0].geometry.coordinates.forEach((r) => r.forEach((p) => { p[0] += 0.5; }))), '--scene', scene()], /far\.geojson: 1 of \d+ polygons lie outside the scene/],
     ['a set of one polygon', () => [fieldWith('one.geojson', (d) => d.features.splice(1)), '--scene', scene()], /one\.geojson: holds 1 polygon; a common shift needs at least two/],
     ['a radius as large as the scene', () => [site.field, '--scene', scene(), '--radius', '200'], /--radius 200 m: must be above 0 and under half the scene's side \(153\.6 m\)/],

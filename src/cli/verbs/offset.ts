@@ -5,8 +5,8 @@ import { LabelFileError, readLabelFile, type LabelledPatch } from '../../core/ge
 import { extentOfRings } from '../../core/geometry/measure.ts';
 import type { Extent } from '../../core/geometry/types.ts';
 import {
-  defaultSettings, estimateShift, sceneSignal, SceneSignalError, shiftPatches, shiftRecord,
-  type OffsetEstimate, type ShiftRecord, type SignalKind,
+  defaultSettings, estimateByArea, estimateShift, sceneSignal, SceneSignalError, shiftPatches, shiftRecord,
+  type AreaShifts, type OffsetEstimate, type ShiftRecord, type SignalKind,
 } from '../../core/offset/index.ts';
 import { requireGeoreference } from '../../core/tiff/inspectTiff.ts';
 import { isTiffError } from '../../core/tiff/errors.ts';
@@ -15,7 +15,7 @@ import { openGeoTiffFile, type OpenGeoTiff } from '../openGeoTiff.ts';
 import { describeFsError } from '../readFileRange.ts';
 import { parseVerbArgs, type Verb, type VerbOutput } from '../verb.ts';
 
-const usage = `fellfield offset FIELD.geojson --scene PAN.tif,MS.tif [--radius 3] [--signal ndvi|pan] [--json] [--apply OUT.geojson]
+const usage = `fellfield offset FIELD.geojson --scene PAN.tif,MS.tif [--radius 3] [--signal ndvi|pan] [--areas N] [--json] [--apply OUT.geojson]
 
 Estimates the systematic shift between field polygons (GPS) and the imagery: the
 shift that best puts the polygons on their crowns, by the contrast of NDVI inside
@@ -29,6 +29,8 @@ shift, rather than giving a number.
   --radius M       largest shift tried, metres (default 3)
   --signal S       ndvi (from the multispectral red and NIR bands, default) or pan
                    (panchromatic brightness)
+  --areas N        also estimate a shift in each of N x N cells of the polygons'
+                   extent and say whether one shift fits them all
   --json           print one JSON document: dx_m, dy_m (the shift to apply, east and
                    north), uncertainty_m, reliable, outliers and the details
   --apply OUT      write the shifted polygons to OUT (RFC 7946 GeoJSON), each with
@@ -144,6 +146,18 @@ function textReport(field: string, estimate: OffsetEstimate, panPixel: number, p
   return lines.join('\n');
 }
 
+function areaLines(areas: AreaShifts): string[] {
+  const verdict = areas.oneShiftFits === null ? 'too few cells with a reliable shift to tell' : areas.oneShiftFits ? 'one shift fits every cell' : 'one shift does not fit every cell';
+  const lines = [`  per area (${areas.cellsAcross} x ${areas.cellsAcross} cells, south-west first): ${verdict}`];
+  for (const c of areas.cells) {
+    const what = c.reliable
+      ? `${num(c.dx!)} m east, ${num(c.dy!)} m north, +-${num(c.uncertainty!)} m${c.agrees === false ? ' (differs from the common shift)' : ''}`
+      : `no reliable shift (${c.reasons[0] ?? 'unknown'})`;
+    lines.push(`    cell ${c.col + 1},${c.row + 1}: ${c.polygons} polygons, ${what}`);
+  }
+  return lines;
+}
+
 function jsonReport(field: string, scene: string[], estimate: OffsetEstimate, panPixel: number, polygons: number, applied: string | null) {
   return {
     field,
@@ -200,7 +214,7 @@ async function writeShifted(out: string, fieldText: string, patches: LabelledPat
 
 async function run(args: string[], out: VerbOutput): Promise<number> {
   const { values, positionals } = parseVerbArgs('offset', args, {
-    scene: { type: 'string' }, radius: { type: 'string' }, signal: { type: 'string' }, json: { type: 'boolean' }, apply: { type: 'string' },
+    scene: { type: 'string' }, radius: { type: 'string' }, signal: { type: 'string' }, areas: { type: 'string' }, json: { type: 'boolean' }, apply: { type: 'string' },
   });
   if (positionals.length !== 1) {
     throw new InputError(positionals.length === 0 ? 'give the field polygons: fellfield offset FIELD.geojson --scene PAN.tif,MS.tif' : `give one field file, not ${positionals.length}`);
@@ -211,6 +225,8 @@ async function run(args: string[], out: VerbOutput): Promise<number> {
   if (!Number.isFinite(radius) || radius <= 0) throw new InputError(`--radius must be a positive number of metres, got '${values.radius}'`);
   const signal = (values.signal ?? 'ndvi') as SignalKind;
   if (signal !== 'ndvi' && signal !== 'pan') throw new InputError(`--signal takes ndvi or pan, got '${values.signal}'`);
+  const cells = values.areas === undefined ? 0 : Number(values.areas);
+  if (!Number.isInteger(cells) || cells < 0 || cells > 8) throw new InputError(`--areas takes a whole number of cells across from 1 to 8, got '${values.areas}'`);
 
   const pan = await openScene(sceneFiles[0]);
   let ms: OpenGeoTiff | null = null;
@@ -240,7 +256,9 @@ async function run(args: string[], out: VerbOutput): Promise<number> {
       if (error instanceof SceneSignalError || isTiffError(error)) throw new InputError(error.message);
       throw error;
     }
-    const estimate = estimateShift(file.patches.map((p) => ({ id: p.id, rings: p.rings })), grid, settings);
+    const patches = file.patches.map((p) => ({ id: p.id, rings: p.rings }));
+    const estimate = estimateShift(patches, grid, settings);
+    const areas = cells > 0 ? estimateByArea(patches, grid, settings, estimate, cells) : null;
 
     let applied: string | null = null;
     if (values.apply !== undefined) {
@@ -253,8 +271,8 @@ async function run(args: string[], out: VerbOutput): Promise<number> {
       }
     }
     out.stdout(values.json
-      ? JSON.stringify(jsonReport(field, sceneFiles, estimate, panPixel, file.patches.length, applied), null, 2)
-      : textReport(field, estimate, panPixel, file.patches.length, applied));
+      ? JSON.stringify({ ...jsonReport(field, sceneFiles, estimate, panPixel, file.patches.length, applied), areas }, null, 2)
+      : [textReport(field, estimate, panPixel, file.patches.length, applied), ...(areas ? areaLines(areas) : [])].join('\n'));
     return values.apply !== undefined && !applied ? 1 : 0;
   } finally {
     await pan.close();

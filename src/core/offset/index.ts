@@ -7,3 +7,4 @@ export { sceneSignal, redAndNir, SceneSignalError, DEFAULT_SHADOW_SHARE, type Sc
 export { ndviValues, brightnessValues, maskShadows, isConstant, type SignalGrid, type SignalKind } from './signalGrid.ts';
 export { shiftPatches, shiftRecord, SHIFT_METHOD, type Shift, type ShiftRecord } from './shiftPatches.ts';
 export { bruteForceShift } from './bruteForce.ts';
+export { estimateByArea, type AreaShift, type AreaShifts } from './areaShifts.ts';
