@@ -8,7 +8,12 @@ import { specKey, type CompareSpec, type LayerSpec } from './layerSpec.ts';
 
 const FLICKER_MS = 700;
 /** Layers kept ready (each with its tile cache); older ones are dropped. */
-const KEPT_LAYERS = 6;
+const KEPT_LAYERS = 4;
+/**
+ * Finished tiles each layer keeps (least recently used out): 4 layers x 192 tiles of
+ * 256 x 256 RGBA is under 200 MB however far the user pans.
+ */
+const TILES_PER_LAYER = 192;
 
 /**
  * The imagery of the map: one tile layer per layer spec, made when first shown and kept
@@ -36,7 +41,7 @@ export class ImageryLayers {
   show(spec: LayerSpec | null, compare: CompareSpec | null): void {
     if (!spec) return;
     const main = this.#layer(spec);
-    const top = compare ? this.#layer(compare.layer, 'imagery-compare') : null;
+    const top = compare ? this.#layer(compare.layer, 'ol-layer imagery-compare') : null;
     this.#stopFlicker();
     if (this.#top && this.#top !== top) this.#detachClip(this.#top);
     for (const layer of this.#layers.values()) layer.setVisible(layer === main || layer === top);
@@ -66,7 +71,7 @@ export class ImageryLayers {
     this.#layers.clear();
   }
 
-  #layer(spec: LayerSpec, className = 'imagery-layer'): TileLayer | null {
+  #layer(spec: LayerSpec, className = 'ol-layer imagery-layer'): TileLayer | null {
     const key = `${className}:${specKey(spec)}`;
     let layer = this.#layers.get(key);
     if (layer) {
@@ -77,7 +82,7 @@ export class ImageryLayers {
     const scene = this.#site.scenes[spec.scene];
     const source = scene ? layerSource(scene, spec, this.#projection) : null;
     if (!source) return null;
-    layer = new TileLayer({ source, visible: false, className, preload: 0 });
+    layer = new TileLayer({ source, visible: false, className, preload: 0, cacheSize: TILES_PER_LAYER });
     this.#layers.set(key, layer);
     this.group.getLayers().push(layer);
     this.#evict();
