@@ -65,6 +65,7 @@ async function benchSite(n: number): Promise<OpenedSite> {
       await commit({ kind: 'ruling.recorded', payload: { ruling: { id: `R${i}`, patchId: id, decision: { kind: 'accept', passId: 'a' }, passIds: ['a', 'b'], by: 'cleo', time: time(), reason: 'crown shape', reopened: null } } }, 'cleo');
     }
   }
+  for (const passId of ['a', 'b']) await commit({ kind: 'pass.ended', payload: { passId, time: time() } });
   // A systematic shift applied to every twentieth outline.
   for (let i = 0; i < n; i += 20) {
     const patch = state.patches.get(`F${i + 1}`)!;

@@ -154,6 +154,12 @@ export function patchRecords(state: SiteState, events: readonly LedgerEvent[], o
   if (selection.kind === 'pass' && !state.passes.has(selection.passId)) {
     throw new ExportError(`the site has no pass "${selection.passId}" (passes: ${[...state.passes.keys()].join(', ') || 'none'})`);
   }
+  // A blind pass hides everyone's calls while it runs (exports included), and the history
+  // that travels with every export holds them all: so no export until it ends.
+  const running = [...state.passes.values()].filter((p) => p.blind && p.endedAt === null).map((p) => p.id);
+  if (running.length) {
+    throw new ExportError(`blind pass ${running.join(', ')} is still running: end it before exporting, since an export shows every interpreter's calls`);
+  }
   const siteCrs = `EPSG:${state.site?.epsg}`;
   const tagsOf = groupBy(state.tags.values(), (t) => t.patchId);
   const rulingsOf = groupBy(state.rulings.values(), (r) => r.patchId);

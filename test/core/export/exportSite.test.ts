@@ -103,6 +103,14 @@ describe('exportSite', () => {
     expect(new Set(folds)).toEqual(new Set([0, 1, 2]));
   });
 
+  it('refuses to export while a blind pass runs, naming it', async () => {
+    const b = await twoPassSite(2);
+    await b.commit({ kind: 'pass.started', payload: { pass: { id: 'c', interpreter: 'dev', blind: true, startedAt: b.time(), endedAt: null, patchIds: ['P1'] } } }, 'dev');
+    await expect(exported(b.opened)).rejects.toThrow(/^blind pass c is still running: end it before exporting/);
+    await b.commit({ kind: 'pass.ended', payload: { passId: 'c', time: b.time() } }, 'dev');
+    await expect(exported(b.opened)).resolves.toBeDefined();
+  });
+
   it('refuses an export name that could leave the folder', async () => {
     const b = await twoPassSite(2);
     await expect(exportSite(b.opened, consensusOnly, { ...run, baseName: '../x' })).rejects.toThrow(/may hold only letters/);

@@ -89,5 +89,6 @@ export async function twoPassSite(n = 12): Promise<SiteBuilder> {
     await b.tag(id, 'b', i % 5 === 0 ? (species === 'ABFI' ? 'SAIN' : 'ABFI') : species, 'ben');
     if (i % 5 === 0) await b.rule(`R${i}`, id, { kind: 'accept', passId: 'a' });
   }
+  for (const passId of ['a', 'b']) await b.commit({ kind: 'pass.ended', payload: { passId, time: b.time() } });
   return b;
 }
