@@ -16,3 +16,6 @@ export {
   type BlindAnswers, type BlindAnswer, type AnswersFit,
 } from './blindAnswers.ts';
 export { pairPasses, passSheet, passesFleiss, delineationSheet, classOrder, type PassSheet, type PassesFleiss, type DelineationSheet } from './passComparison.ts';
+export { agreementCsv, type SheetCsvInput } from './sheetCsv.ts';
+export { agreementReport, type ReportLine } from './sheetText.ts';
+export { imagePdf, jpegSize } from './imagePdf.ts';
