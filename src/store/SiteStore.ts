@@ -174,8 +174,9 @@ export class SiteStore {
     return check;
   }
 
+  /** Closes the database for good: a late read must not reopen it and block a delete. */
   close(): void {
-    this.db.close();
+    this.db.close({ disableAutoOpen: true });
   }
 
   private async write(draft: EventDraft): Promise<LedgerEvent> {
