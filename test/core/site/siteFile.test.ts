@@ -45,3 +45,22 @@ describe('the site file', () => {
     expect(await refusal('b.json', '{"format":"something-else"}')).toBe('b.json: not a Fellfield site file');
   });
 });
+
+describe('siteFileFromDemo', () => {
+  it('writes a site file that restores, with the field polygons imported and tagged', async () => {
+    const { siteFileFromDemo } = await import('../../../src/core/site/index.ts');
+    const field = { type: 'FeatureCollection', features: [0, 1, 2].map((i) => ({ type: 'Feature', properties: { id: `F${i}`, species: ['PIEX', 'ABFI', 'ZZZZ'][i] }, geometry: { type: 'Polygon', coordinates: [[[-135.07 + i * 1e-4, 40.01], [-135.0699 + i * 1e-4, 40.01], [-135.0699 + i * 1e-4, 40.0101], [-135.07 + i * 1e-4, 40.01]]] } })) };
+    const roster = ['ABFI', 'PIEX'].map((code, i) => ({ code, scientificName: '', commonName: '', group: 'conifer', colour: '#000000', key: String(i + 1) }));
+    const text = await siteFileFromDemo({
+      siteId: 'demo', name: 'Demo', epsg: 32608, time: '2025-07-24T12:00:00.000Z', interpreter: 'demo',
+      scenes: [{ id: 'early', date: '2025-07-24', epsg: 32608, files: [{ role: 'pan', name: 'pan.tif', size: 1, sha256: 'ab' }] }],
+      roster, fieldFile: { name: 'field.geojson', bytes: new TextEncoder().encode(JSON.stringify(field)), speciesAttribute: 'species' },
+    });
+    const { state } = await readSiteFile('demo.site.json', text);
+    expect(state.patches.size).toBe(3);
+    expect([...state.tags.values()].map((t) => t.species).sort()).toEqual(['ABFI', 'PIEX']);
+    expect(state.scenes.get('early')?.files[0].sha256).toBe('ab');
+    expect(await siteFileFromDemo({ siteId: 'demo', name: 'Demo', epsg: 32608, time: '2025-07-24T12:00:00.000Z', interpreter: 'demo', scenes: [], roster, fieldFile: { name: 'field.geojson', bytes: new TextEncoder().encode(JSON.stringify(field)), speciesAttribute: 'species' } }))
+      .toMatch(/^\{"format":"fellfield-site"/);
+  });
+});
