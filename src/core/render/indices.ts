@@ -6,7 +6,7 @@ import type { BandEntry } from '../bandTable.ts';
 export type IndexName = 'ndvi' | 'ndre' | 'gndvi';
 
 /** A spectral role a band can play, by the range its centre wavelength falls in (nm). */
-export type BandRole = 'green' | 'red' | 'rededge' | 'nir';
+export type BandRole = 'blue' | 'green' | 'red' | 'rededge' | 'nir';
 
 export interface IndexDefinition {
   name: IndexName;
@@ -34,12 +34,14 @@ export const indexDefinitions: Record<IndexName, IndexDefinition> = {
 
 // Wavelength windows of each role (common practice; they bracket the usual sensor bands).
 const roleWindows: Record<BandRole, [number, number]> = {
+  blue: [440, 500],
   green: [500, 590],
   red: [620, 690],
   rededge: [695, 760],
   nir: [770, 900],
 };
 const roleNames: Record<BandRole, RegExp> = {
+  blue: /^blue$/i,
   green: /^green$/i,
   red: /^red$/i,
   rededge: /^red[ -]?edge$/i,

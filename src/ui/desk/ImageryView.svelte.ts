@@ -45,6 +45,8 @@ export class ImageryView {
   problem = $state<string | null>(null);
   /** Tiles that could not be shown (a damaged block in the middle of a file): the latest message and the count. */
   tileProblem = $state<string | null>(null);
+  /** Bumped when the user edits a band table, so what reads the tables reads them again. */
+  tableVersion = $state(0);
   readonly site: OpenSite;
   /** Sample reads under way, by scene and band key (not shown, so not reactive). */
   #loading: Record<string, boolean> = {};
@@ -76,9 +78,13 @@ export class ImageryView {
 
   /** The three displayed multispectral bands (0-based), or null when the band table cannot give them. */
   get compositeBands(): [number, number, number] | null {
+    void this.tableVersion;
     const ms = this.scene.ms;
     if (!ms) return null;
-    if (this.preset === 'natural') return ms.naturalColour.bands;
+    if (this.preset === 'natural') {
+      const named = (['red', 'green', 'blue'] as const).map((role) => bandForRole(ms.bands, role));
+      return named.every((b) => b !== null) ? (named as [number, number, number]) : ms.naturalColour.bands;
+    }
     if (this.preset === 'custom') return this.customBands;
     const roles = (['nir', 'red', 'green'] as const).map((role) => bandForRole(ms.bands, role));
     return roles.every((b) => b !== null) ? (roles as [number, number, number]) : null;
@@ -129,6 +135,7 @@ export class ImageryView {
   }
 
   #layerFor(scene: number): LayerSpec | null {
+    void this.tableVersion;
     const s = this.site.scenes[scene];
     const limits = (keys: string[]) => {
       const found = keys.map((k) => this.limitsOf(k));
@@ -186,6 +193,26 @@ export class ImageryView {
     this.customBands = next;
     this.preset = 'custom';
     this.#load();
+  }
+
+  /**
+   * Edits one band of this date's band table (name, centre wavelength in nm). Returns a
+   * message when the edit is refused: an empty name, a name another band has, or a
+   * wavelength outside 300-2500 nm.
+   */
+  editBand(band: number, change: { name?: string; centre_nm?: number | null }): string | null {
+    const table = this.scene.ms?.bands;
+    if (!table || !table[band]) return `there is no band ${band + 1}`;
+    const name = change.name !== undefined ? change.name.trim() : table[band].name;
+    if (!name) return `band ${band + 1} needs a name`;
+    if (table.some((b, i) => i !== band && b.name.toLowerCase() === name.toLowerCase())) return `another band is already called ${name}`;
+    const nm = change.centre_nm !== undefined ? change.centre_nm : table[band].centre_nm;
+    if (nm !== null && !(nm >= 300 && nm <= 2500)) return `a centre wavelength of ${nm} nm is outside 300-2500 nm`;
+    table[band] = { ...table[band], name, centre_nm: nm };
+    this.tableVersion++;
+    this.problem = this.display === 'index' ? this.#indexProblem() : this.compositeBands ? null : this.#compositeProblem();
+    this.#load();
+    return null;
   }
 
   chooseIndex(index: IndexName): void {
