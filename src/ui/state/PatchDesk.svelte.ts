@@ -140,6 +140,12 @@ export class PatchDesk {
   }
 
   useTool(tool: Tool): void {
+    // A second look keeps the outlines it was sent; only a delineation draws its own.
+    const blind = this.blindPass;
+    if (blind && blind.patchIds?.length && tool !== 'select') {
+      this.notice = 'Outlines stay as they were sent in a blind pass: call the species only.';
+      return;
+    }
     this.tool = this.tool === tool ? 'select' : tool;
     this.sketch = null;
     this.notice = null;
@@ -165,6 +171,7 @@ export class PatchDesk {
   deleteSelected(): Promise<void> {
     const id = this.selectedId;
     if (!id) return Promise.resolve();
+    if (this.blindPass?.patchIds?.length) return this.#say('Outlines stay as they were sent in a blind pass: call the species only.');
     this.selectedId = null;
     return this.#save(() => deletePatch(this.#store, id, this.#actor()));
   }
@@ -219,12 +226,14 @@ export class PatchDesk {
   }
 
   undo(): Promise<void> {
+    if (this.blindPass) return this.#say('Undo is off in a blind pass (it would reach changes you cannot see): press another key to change your call.');
     return this.#save(async () => {
       if (!(await this.#store.undo(this.interpreter, this.#now()))) this.notice = 'Nothing left to undo.';
     });
   }
 
   redo(): Promise<void> {
+    if (this.blindPass) return this.#say('Redo is off in a blind pass: press another key to change your call.');
     return this.#save(async () => {
       if (!(await this.#store.redo(this.interpreter, this.#now()))) this.notice = 'Nothing to redo.';
     });
