@@ -1,6 +1,7 @@
-// offset.estimate: the field-to-imagery shift of 300 polygons over a 3 m radius on the
-// demo scene (seed 1), by the coarse-to-fine search, beside the brute-force baseline
-// that scores every shift of the disc at the final lattice step.
+// offset.estimate: the field-to-imagery shift of 300 polygons (--size large: 1000) over
+// a 3 m radius on the demo scene (seed 1, 4096 pixels), by the coarse-to-fine search,
+// beside the brute-force baseline that scores every shift of the disc at the final
+// lattice step.
 import { crownOutline } from '../src/core/demo/crowns.ts';
 import { demoRasterFiles } from '../src/core/demo/files.ts';
 import { synthesizeDemo } from '../src/core/demo/synthesize.ts';
@@ -13,11 +14,11 @@ import { sceneSignal } from '../src/core/offset/sceneSignal.ts';
 import { inspectTiff } from '../src/core/tiff/inspectTiff.ts';
 import { result, seeded, time, type Benchmark, type BenchSize } from './harness.ts';
 
-const POLYGONS = 300;
 
-/** The demo's field polygons, topped up to 300 with outlines of further crowns walked the same way (crew shift plus GPS noise). */
+/** The demo's field polygons, topped up to 300 (or 1000) with outlines of further crowns walked the same way (crew shift plus GPS noise). */
 async function setUp(size: BenchSize) {
-  const sceneSize = size === 'large' ? 4096 : 2048;
+  const sceneSize = 4096;
+  const count = size === 'large' ? 1000 : 300;
   const scene = synthesizeDemo({ seed: 1, size: sceneSize, dates: ['early'] });
   const field = readLabelFile(JSON.stringify(scene.field), 'field.geojson', { targetEpsg: 32608 });
   const patches: OffsetPatch[] = field.patches.map((p) => ({ id: p.id, rings: p.rings }));
@@ -26,7 +27,7 @@ async function setUp(size: BenchSize) {
   const gauss = () => Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random());
   const [sx, sy] = scene.survey.shift;
   for (const crown of scene.crowns) {
-    if (patches.length >= POLYGONS) break;
+    if (patches.length >= count) break;
     if (walked.has(crown.id) || crown.radius < 1) continue;
     const ring = crownOutline(crown, 20).map(([x, y]) => [x + sx + 0.3 * gauss(), y + sy + 0.3 * gauss()] as [number, number]);
     ring[ring.length - 1] = [ring[0][0], ring[0][1]];
