@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { disagreementQueue, filterQueue, queueProgress, speciesPairs } from '../../../src/core/rulings/index.ts';
 import type { Finding } from '../../../src/core/checks/findings.ts';
+import type { Patch } from '../../../src/core/site/index.ts';
 import { ruledSite } from '../../app/rulings/ruledSite.ts';
 
 // The disagreement queue on a small site built through the blind-pass use cases.
@@ -77,7 +78,7 @@ describe('the disagreement queue', () => {
     // (x 40..50), and the area spans P2 (x 20..30), which bo did not draw.
     const { startDelineation, endBlindPass } = await import('../../../src/app/blind/blindPasses.ts');
     const pass = await startDelineation(site, { interpreter: 'bo', time: '2026-07-02T08:00:00.000Z' });
-    const drawn = (id: string, x: number) => ({
+    const drawn = (id: string, x: number): Patch => ({
       id, geometry: [[[[x, 0], [x + 10, 0], [x + 10, 10], [x, 10], [x, 0]]]], source: { kind: 'drawn' as const }, createdAt: '2026-07-02T08:10:00.000Z', createdBy: 'bo',
     });
     for (const [id, x] of [['D1', 0.5], ['D2', 40]] as const) {
