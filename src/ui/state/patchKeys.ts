@@ -20,5 +20,7 @@ export const ACTION_KEYS = { u: 'next untagged', i: 'next unsure', t: 'note', g:
 /** Single keys the desk uses for something else, so a roster entry cannot take them. */
 export const DESK_KEYS: ReadonlySet<string> = new Set([
   'p', 'n', 'c', 's', 'v', 'm', 'd', 'w', 'b', 'e', 'f', 'x', '?',
+  // Z: "can't tell" in a blind pass (BlindPassPanel)
+  'z',
   ...Object.keys(CONFIDENCE_KEYS), ...Object.keys(TOOL_KEYS), ...Object.keys(ACTION_KEYS),
 ]);
