@@ -4,7 +4,9 @@ import VectorSource from 'ol/source/Vector.js';
 import type { ProjectionLike } from 'ol/proj.js';
 import Feature from 'ol/Feature.js';
 import MultiPolygon from 'ol/geom/MultiPolygon.js';
+import LayerGroup from 'ol/layer/Group.js';
 import { patchLookStyle, speciesStyle, type PatchLook, type SpeciesLook } from './speciesStyle.ts';
+import { OVERVIEW_RESOLUTION_M, PatchOverview } from './patchOverview.ts';
 
 /** GeoJSON (RFC 7946, lon/lat) polygons drawn in the map's projection, coloured by species. */
 export function patchLayer(geojson: object, projection: ProjectionLike, looks: SpeciesLook[], speciesProperty = 'species') {
@@ -32,7 +34,12 @@ export interface PatchFeatureData {
  * without rebuilding the source.
  */
 export class StoredPatchLayer {
+  /** near: outlines as vector features, which the tools edit */
   readonly layer: VectorLayer<VectorSource<Feature<MultiPolygon>>>;
+  /** far: every patch filled on one canvas */
+  readonly overview: PatchOverview;
+  /** both, for the map */
+  readonly layers: LayerGroup;
   readonly source = new VectorSource<Feature<MultiPolygon>>({ wrapX: false });
   #showImported = true;
   #known = new Map<string, PatchFeatureData>();
@@ -45,15 +52,22 @@ export class StoredPatchLayer {
     this.#style = patchLookStyle([...looks]);
     this.layer = new VectorLayer({
       source: this.source,
-      className: 'stored-patches-layer',
+      className: 'patches-layer stored-patches-layer',
       style: (feature) => {
         const data = this.#known.get(String(feature.getId()));
-        if (!data || (data.imported && !this.#showImported && !data.look.selected)) return undefined;
+        if (!data || !this.#shown(data)) return undefined;
         return this.#style(data.look);
       },
       updateWhileAnimating: false,
       updateWhileInteracting: false,
+      maxResolution: OVERVIEW_RESOLUTION_M,
     });
+    this.overview = new PatchOverview(() => this.#known.values(), (data) => this.#shown(data), looks);
+    this.layers = new LayerGroup({ layers: [this.overview.layer, this.layer] });
+  }
+
+  #shown(data: PatchFeatureData): boolean {
+    return !(data.imported && !this.#showImported && !data.look.selected);
   }
 
   /** New species colours (the roster changed); the same list is a no-op. */
@@ -61,13 +75,16 @@ export class StoredPatchLayer {
     if (looks === this.#looks) return;
     this.#looks = looks;
     this.#style = patchLookStyle([...looks]);
+    this.overview.setLooks(looks);
     this.layer.changed();
+    this.overview.changed();
   }
 
   setShowImported(show: boolean): void {
     if (show === this.#showImported) return;
     this.#showImported = show;
     this.layer.changed();
+    this.overview.changed();
   }
 
   feature(id: string): Feature<MultiPolygon> | null {
@@ -105,6 +122,7 @@ export class StoredPatchLayer {
     }
     if (added.length) this.source.addFeatures(added);
     if (restyled) this.layer.changed();
+    this.overview.changed();
   }
 
   /** Puts a feature's outline back to the stored one (after an edit was refused). */
@@ -117,6 +135,8 @@ export class StoredPatchLayer {
   dispose(): void {
     this.source.clear(true);
     this.layer.dispose();
+    this.overview.layer.dispose();
+    this.layers.dispose();
   }
 }
 

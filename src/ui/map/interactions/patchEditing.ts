@@ -26,7 +26,7 @@ export function attachPatchEditing(map: Map, desk: PatchDesk, looks: SpeciesLook
   // Colours come from the stored roster (so an edited roster recolours the map), and
   // from the site's files until a roster is stored.
   const patches = new StoredPatchLayer(desk.roster.length ? desk.roster : looks);
-  map.addLayer(patches.layer);
+  map.addLayer(patches.layers);
   let active: Interaction[] = [];
   let current: { tool: Tool; selected: string | null; snap: boolean } | null = null;
   const sketch = (outline: Parameters<PatchDesk['measureSketch']>[0]) => desk.measureSketch(outline);
@@ -101,7 +101,7 @@ export function attachPatchEditing(map: Map, desk: PatchDesk, looks: SpeciesLook
       stopChange();
       stopFocus();
       for (const interaction of active) map.removeInteraction(interaction);
-      map.removeLayer(patches.layer);
+      map.removeLayer(patches.layers);
       patches.dispose();
     },
   };
