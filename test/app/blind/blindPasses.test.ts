@@ -129,3 +129,17 @@ describe('interpreter profiles and pauses', () => {
     expect(new PassPauses(kv, 'site-2', () => '').isPaused('blind-1')).toBe(false);
   });
 });
+
+describe('the blind pass at the desk, for the pages beside it', () => {
+  it('follows the profile at the desk', async () => {
+    const { blindPassAtDesk, interpreterAtDesk } = await import('../../../src/app/blind/blindAtDesk.ts');
+    const store = await site();
+    const kv = new MemoryKeyValue();
+    expect(interpreterAtDesk(kv)).toBe('Interpreter A');
+    const { pass } = await startBlindPass(store, { kind: 'picked', patchIds: ['P1'] }, at('ben'));
+    expect(blindPassAtDesk(store.state, kv)).toBeNull();
+    const book = new InterpreterProfiles(kv, () => '2025-08-01T00:00:00.000Z');
+    book.add('ben', 'B');
+    expect(blindPassAtDesk(store.state, kv)?.id).toBe(pass.id);
+  });
+});
