@@ -6,7 +6,7 @@
 export class StorageError extends Error {
   constructor(
     message: string,
-    readonly kind: 'full' | 'stale' | 'unavailable' | 'other',
+    readonly kind: 'full' | 'refused' | 'stale' | 'unavailable' | 'other',
     readonly original?: unknown,
   ) {
     super(message);
@@ -41,6 +41,18 @@ export function storageError(error: unknown, siteName: string): StorageError {
     );
   }
   const first = chain(error)[0];
+  // A transaction aborted with no other cause: what Chromium reports when the disk itself
+  // fills before the quota is reached.
+  const links = chain(error);
+  const aborted = (e: { name?: string }) => e.name === 'AbortError' || e.name === 'UnknownError';
+  if (links.some(aborted) && links.every((e) => aborted(e) || e.name === 'Error')) {
+    return new StorageError(
+      `Site "${siteName}": the last change was not saved because the browser's storage refused it (${first?.name ?? 'Error'}: ${first?.message ?? ''}); a full disk is the usual cause. ` +
+        'Everything saved before it is kept. Free some disk space, save a backup of this site to another disk, then try the change again.',
+      'refused',
+      error,
+    );
+  }
   if (first?.name === 'InvalidStateError' || first?.name === 'UnknownError' || first?.name === 'DatabaseClosedError') {
     return new StorageError(
       `Site "${siteName}": the browser's storage is not available (${first.name}: ${first.message ?? ''}). ` +

@@ -19,5 +19,10 @@ describe('storage errors', () => {
     expect(error.message).toMatch(/^Site "Upper basin": the last change was not saved because the disk is full/);
     expect(error.message).toMatch(/Everything saved before it is kept/);
     expect(storageError(new DOMException('gone', 'InvalidStateError'), 'Upper basin').kind).toBe('unavailable');
+    // a bare abort, as when the disk fills before the quota: still told as a refused write
+    const refused = storageError({ name: 'AbortError', message: 'The transaction was aborted', inner: null }, 'Upper basin');
+    expect(refused.kind).toBe('refused');
+    expect(refused.message).toMatch(/^Site "Upper basin": the last change was not saved because the browser's storage refused it \(AbortError: The transaction was aborted\); a full disk is the usual cause/);
+    expect(storageError(new DOMException('dup', 'ConstraintError'), 'Upper basin').kind).toBe('other');
   });
 });
