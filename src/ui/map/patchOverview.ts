@@ -48,13 +48,14 @@ export class PatchOverview {
 
   #draw(extent: number[], resolution: number, pixelRatio: number, size: number[]): HTMLCanvasElement {
     const canvas = document.createElement('canvas');
-    const [width, height] = size;
-    canvas.width = width;
-    canvas.height = height;
+    // OpenLayers hands a size in fractional pixels; rows must be whole pixels wide.
+    canvas.width = Math.max(1, Math.round(size[0]));
+    canvas.height = Math.max(1, Math.round(size[1]));
+    const { width, height } = canvas;
     const context = canvas.getContext('2d')!;
     const image = context.createImageData(width, height);
     const pixels = new Uint32Array(image.data.buffer);
-    const frame = { left: extent[0], top: extent[3], resolution: resolution / pixelRatio, width, height };
+    const frame = { left: extent[0], top: extent[3], resolution: (extent[2] - extent[0]) / width, width, height };
     const rim = packColour('#000000', 170);
     const packed = new Map<string, number>();
     const selected: PatchFeatureData[] = [];
@@ -63,7 +64,7 @@ export class PatchOverview {
       if (data.look.selected) selected.push(data);
       const colour = data.look.species ? (this.#colours.get(data.look.species) ?? '#bbbbbb') : UNTAGGED;
       let fill = packed.get(colour);
-      if (fill === undefined) packed.set(colour, (fill = packColour(colour, 235)));
+      if (fill === undefined) packed.set(colour, (fill = packColour(colour, 255)));
       burnOutline(pixels, frame, data.geometry as MultiPolygonRings, fill, rim);
     }
     context.putImageData(image, 0, 0);

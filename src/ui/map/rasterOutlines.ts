@@ -65,8 +65,8 @@ function boxOf(parts: MultiPolygonRings): [number, number, number, number] {
 
 /**
  * Burns one outline into `pixels` (one 32-bit RGBA word per pixel). With `rim`, the
- * pixels just around the patch's box get that colour first, so the patch reads on
- * bright ground. Returns how many pixels took the fill colour.
+ * pixels just around the box of a patch wider than two pixels get that colour first, so
+ * the patch reads on bright ground. Returns how many pixels took the fill colour.
  */
 export function burnOutline(pixels: Uint32Array, frame: PixelFrame, parts: MultiPolygonRings, fill: number, rim: number | null = null): number {
   const [minX, minY, maxX, maxY] = boxOf(parts);
@@ -75,13 +75,15 @@ export function burnOutline(pixels: Uint32Array, frame: PixelFrame, parts: Multi
   const c0 = Math.floor((minX - left) / resolution), c1 = Math.floor((maxX - left) / resolution);
   const r0 = Math.floor((top - maxY) / resolution), r1 = Math.floor((top - minY) / resolution);
   if (c1 < -1 || r1 < -1 || c0 > width || r0 > height) return 0;
-  if (rim !== null) {
+  const small = c1 - c0 < SMALL_PIXELS && r1 - r0 < SMALL_PIXELS;
+  // A rim round a crown of a pixel or two would drown its colour; larger ones get it.
+  if (rim !== null && !small) {
     const ra = Math.max(0, r0 - 1), rb = Math.min(height - 1, r1 + 1), ca = Math.max(0, c0 - 1), cb = Math.min(width - 1, c1 + 1);
     for (let r = ra; r <= rb; r++) pixels.fill(rim, r * width + ca, r * width + cb + 1);
   }
   let filled = 0;
   const ra = Math.max(0, r0), rb = Math.min(height - 1, r1), ca = Math.max(0, c0), cb = Math.min(width - 1, c1);
-  if (c1 - c0 < SMALL_PIXELS && r1 - r0 < SMALL_PIXELS) {
+  if (small) {
     // A crown of a pixel or two: its box is as good as its outline, and far cheaper.
     for (let r = ra; r <= rb; r++) pixels.fill(fill, r * width + ca, r * width + cb + 1);
     return Math.max(0, (rb - ra + 1) * (cb - ca + 1));
