@@ -124,6 +124,23 @@ describe('imagery views of the demo site', () => {
     await mapReady();
   });
 
+  it('flickers between the dates: the late date comes and goes', async () => {
+    await page.keyboard.press('b');
+    await expect.poll(() => page.getAttribute('button:has-text("Flicker")', 'aria-pressed')).toBe('true');
+    await mapReady();
+    const seen = new Set<boolean>();
+    for (let i = 0; i < 16; i++) {
+      seen.add(await page.evaluate(() => {
+        const layer = document.querySelector<HTMLElement>('.imagery-compare');
+        return Boolean(layer && layer.isConnected && getComputedStyle(layer).display !== 'none' && layer.querySelector('canvas'));
+      }));
+      await page.waitForTimeout(200);
+    }
+    expect([...seen].sort()).toEqual([false, true]);
+    await page.keyboard.press('b');
+    await expect.poll(() => page.getAttribute('button:has-text("Flicker")', 'aria-pressed')).toBe('false');
+  });
+
   it('inspects a pixel: the values geotiff.js reads there, stretched by the 2-98 % of the overview, and its NDVI', async () => {
     await page.keyboard.press('n');
     const box = (await page.locator('[data-testid="map"]').boundingBox())!;
