@@ -67,8 +67,13 @@ function besideBlindPasses(state: SiteState, interpreter: string): SiteState {
     if (isDelineationPass(pass)) delineations.push(pass);
   }
   if (hiddenPasses.size === 0) return state;
-  const patches = new Map(state.patches);
-  for (const patch of state.patches.values()) if (delineations.some((d) => drawnIn(d, patch))) patches.delete(patch.id);
+  // Outlines are copied only when an open delineation has some to hide.
+  let patches: ReadonlyMap<string, Patch> = state.patches;
+  if (delineations.length) {
+    const kept = new Map(state.patches);
+    for (const patch of state.patches.values()) if (delineations.some((d) => drawnIn(d, patch))) kept.delete(patch.id);
+    patches = kept;
+  }
   const tags = new Map<string, Tag>();
   for (const [key, tag] of state.tags) if (!hiddenPasses.has(tag.passId) && patches.has(tag.patchId)) tags.set(key, tag);
   return { ...state, patches, tags };
