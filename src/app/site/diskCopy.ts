@@ -1,3 +1,4 @@
+import { siteFileOf, writeSiteFile, type LedgerEvent } from '../../core/site/index.ts';
 import type { SiteStore } from '../../store/SiteStore.ts';
 import { siteFileText } from './backupSite.ts';
 import { restoreSite } from './restoreSite.ts';
@@ -6,6 +7,8 @@ import { restoreSite } from './restoreSite.ts';
 // disk fills or a crash corrupts its store. The copy is the site file, written through a
 // CopyTarget (in Electron: a file in the app's data folder, written under a temporary
 // name, flushed, then renamed), at most `maxDelayMs` behind the last durable commit.
+// The keeper holds its own copy of the ledger, fed by each commit, so it never has to
+// read the store back: a store the engine has just reset cannot overwrite a good copy.
 
 export interface CopyTarget {
   /** Replaces the copy atomically (temporary name, flush, rename). */
@@ -39,6 +42,9 @@ export class DiskCopyKeeper {
   private firstDirty = 0;
   private writing: Promise<void> = Promise.resolve();
   private readonly unsubscribe: () => void;
+  private ledger: LedgerEvent[] | null = null;
+  private readonly pending: LedgerEvent[] = [];
+  private readonly loaded: Promise<void>;
   /** the last error of a write, shown to the user until a write succeeds */
   lastError: Error | null = null;
 
@@ -47,7 +53,15 @@ export class DiskCopyKeeper {
     private readonly target: CopyTarget,
     private readonly options: { quietMs?: number; maxDelayMs?: number; onError?: (error: Error) => void } = {},
   ) {
-    this.unsubscribe = store.subscribe(() => this.schedule());
+    this.unsubscribe = store.subscribe((_state, event) => {
+      if (this.ledger) this.ledger.push(event);
+      else this.pending.push(event);
+      this.schedule();
+    });
+    this.loaded = store.ledger().then((events) => {
+      const last = events.at(-1)?.seq ?? 0;
+      this.ledger = [...events, ...this.pending.filter((e) => e.seq > last)];
+    });
   }
 
   private schedule(): void {
@@ -66,7 +80,13 @@ export class DiskCopyKeeper {
     this.timer = null;
     this.writing = this.writing.then(async () => {
       try {
-        await writeDiskCopy(this.store, this.target);
+        await this.loaded;
+        const state = this.store.state;
+        const ledger = this.ledger!;
+        if (ledger.length !== state.head.seq || ledger.at(-1)?.hash !== state.head.hash) {
+          throw new Error(`the copy of site "${this.store.name}" was not written: its ledger does not reach the state's head; the copy on disk is kept as it was`);
+        }
+        await this.target.write(diskCopyName(state.site!.id), writeSiteFile(siteFileOf(state, ledger)));
         this.lastError = null;
       } catch (error) {
         this.lastError = error as Error;
