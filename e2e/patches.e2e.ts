@@ -122,6 +122,37 @@ describe('drawing and tagging a patch by keys', () => {
     await expect.poll(() => saved(page)).toContain('All saved');
   });
 
+  it('cuts the patch in hand with a line, joins the pieces again, and undoes both', async () => {
+    const { page } = session!;
+    // The jump centred P0001 in the map; a line straight across it cuts it in two.
+    const box = (await page.locator('[data-testid="map"]').boundingBox())!;
+    const cx = box.x + box.width / 2, cy = box.y + box.height / 2;
+    await page.keyboard.press('l');
+    await page.mouse.click(cx - 200, cy);
+    await page.waitForTimeout(150);
+    await page.mouse.dblclick(cx + 200, cy + 4);
+    await expect.poll(() => patchCount(page)).toBe(227);
+    await expect.poll(() => saved(page)).toContain('All saved');
+    const kept = Number((await page.locator('[data-testid="patch-measure"] dd').first().textContent())!.replace(/[^\d.]/g, ''));
+    expect(kept).toBeLessThan(Number(area.replace(/[^\d.]/g, '')));
+    // Join the other piece (below the line) back into P0001.
+    await page.keyboard.press('Escape');
+    await page.keyboard.press('y');
+    await page.mouse.click(cx, cy + 40);
+    await expect.poll(() => patchCount(page)).toBe(226);
+    await expect.poll(() => page.locator('[data-testid="patch-measure"] dd').first().textContent()).toBe(area);
+    // A join is two steps (the outline, then the other piece), and so is a cut.
+    await page.keyboard.press('Control+z');
+    await page.keyboard.press('Control+z');
+    await expect.poll(() => patchCount(page)).toBe(227); // the join undone: two pieces again
+    await expect.poll(() => saved(page)).toContain('All saved');
+    await page.keyboard.press('Control+z');
+    await page.keyboard.press('Control+z');
+    await expect.poll(() => patchCount(page)).toBe(226); // the cut undone
+    await expect.poll(() => page.locator('[data-testid="patch-measure"] dd').first().textContent()).toBe(area);
+    await expect.poll(() => saved(page)).toContain('All saved');
+  });
+
   it('walks to the next untagged patch and tags it', async () => {
     const { page } = session!;
     await page.keyboard.press('u');
@@ -132,5 +163,18 @@ describe('drawing and tagging a patch by keys', () => {
     await expect.poll(() => ownTag(page)).toContain('ABFI, sure');
     await page.keyboard.press('u');
     await expect.poll(() => page.locator('[data-testid="patch-in-hand"] .id b').textContent()).not.toBe(id);
+  });
+});
+
+describe('the start screen after the demo was stored', () => {
+  it('lists the demo among the sites on this machine', async () => {
+    const { page } = session!;
+    await page.goto(new URL('?screen=start', page.url()).href);
+    const list = page.locator('[data-testid="stored-sites"] li');
+    await expect.poll(() => list.count(), { timeout: 30_000 }).toBe(1);
+    expect(await list.first().textContent()).toContain('Quarrow Basin (fictional)');
+    await page.locator('[data-testid="stored-sites"] button:has-text("Open")').click();
+    await mapReady(page);
+    await expect.poll(() => patchCount(page), { timeout: 30_000 }).toBe(226);
   });
 });
