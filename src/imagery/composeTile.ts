@@ -56,7 +56,7 @@ export function bandOver(tiles: PlacedTile[], box: PixelBox): SampleArray | Floa
 }
 
 /** The finished RGBA bytes of a tile job. */
-export function composeTile(request: Exclude<RenderRequest, { kind: 'sample' | 'window' }>): { rgba: Uint8ClampedArray<ArrayBuffer>; width: number; height: number } {
+export function composeTile(request: Extract<RenderRequest, { kind: 'bands' | 'index' | 'sharpen' }>): { rgba: Uint8ClampedArray<ArrayBuffer>; width: number; height: number } {
   const width = request.box.x1 - request.box.x0;
   const height = request.box.y1 - request.box.y0;
   let rgba: Uint8ClampedArray<ArrayBuffer>;
@@ -101,4 +101,57 @@ export function sampleWindow(request: Extract<RenderRequest, { kind: 'sample' }>
 /** Every band's values over a window (the inspector's pixel, a patch's spectrum). */
 export function readWindow(request: Extract<RenderRequest, { kind: 'window' }>): Float32Array[] {
   return request.bands.map((tiles) => assembleWindow(tiles, request.box));
+}
+
+const arrayTypes = {
+  uint8: Uint8Array, int8: Int8Array, uint16: Uint16Array, int16: Int16Array,
+  uint32: Uint32Array, int32: Int32Array, float32: Float32Array, float64: Float64Array,
+} as const;
+
+/** A pyramid row: one band over the box, cut into square tiles of the band's type, left to right. */
+export function cutTiles(request: Extract<RenderRequest, { kind: 'cut' }>): ArrayBuffer[] {
+  const { box, tileSize: T, fill } = request;
+  const rows = assembleWindow(request.tiles, box);
+  const width = box.x1 - box.x0;
+  const Type = arrayTypes[request.dtype];
+  const out: ArrayBuffer[] = [];
+  for (let x0 = 0; x0 < width; x0 += T) {
+    const tile = new Type(T * T);
+    for (let y = 0; y < T; y++) {
+      for (let x = 0; x < T; x++) {
+        const v = rows[y * width + x0 + x];
+        tile[y * T + x] = Number.isNaN(v) ? fill : v;
+      }
+    }
+    out.push(tile.buffer as ArrayBuffer);
+  }
+  return out;
+}
+
+/** A coarser pyramid tile: each pixel the mean of the valid 2 x 2 below it (rounded for integers). */
+export function reduceTile(request: Extract<RenderRequest, { kind: 'reduce' }>): ArrayBuffer {
+  const { tileSize: T, noData, fill } = request;
+  const Type = arrayTypes[request.dtype];
+  const children = request.children.map((b) => (b ? new Type(b) : null));
+  const integer = !request.dtype.startsWith('float');
+  const tile = new Type(T * T);
+  const half = T / 2;
+  for (let y = 0; y < T; y++) {
+    for (let x = 0; x < T; x++) {
+      const child = children[(y >= half ? 2 : 0) + (x >= half ? 1 : 0)];
+      let sum = 0, n = 0;
+      if (child) {
+        const sx = (x % half) * 2, sy = (y % half) * 2;
+        for (let k = 0; k < 4; k++) {
+          const v = child[(sy + (k >> 1)) * T + sx + (k & 1)];
+          if (v !== noData && Number.isFinite(v)) {
+            sum += v;
+            n++;
+          }
+        }
+      }
+      tile[y * T + x] = n ? (integer ? Math.round(sum / n) : sum / n) : fill;
+    }
+  }
+  return tile.buffer as ArrayBuffer;
 }

@@ -1,4 +1,4 @@
-import { composeTile, readWindow, sampleWindow } from './composeTile.ts';
+import { composeTile, cutTiles, readWindow, reduceTile, sampleWindow } from './composeTile.ts';
 import type { JobRunner, RenderRequest, RenderResult } from './renderJobs.ts';
 
 /**
@@ -11,6 +11,8 @@ export class InlinePool implements JobRunner {
     const job = request.payload;
     if (job.kind === 'sample') return sampleWindow(job);
     if (job.kind === 'window') return readWindow(job);
+    if (job.kind === 'cut') return cutTiles(job);
+    if (job.kind === 'reduce') return reduceTile(job);
     return composeTile(job);
   }
 }

@@ -1,13 +1,14 @@
 import type { TiffLevel, TiffSummary } from '../core/tiff/inspectTiff.ts';
-import { bytesPerSample, hostLittleEndian, type SampleArray } from '../core/tiff/tags.ts';
+import { bytesPerSample, hostLittleEndian } from '../core/tiff/tags.ts';
 import type { FileRef } from '../platform/types.ts';
 import { Raster, type RangeReader } from './Raster.ts';
+import { uniqueBuffers } from './renderJobs.ts';
 import type { TileStore } from './tileStore.ts';
 
 // A tiled pyramid for a file that has none of its own (striped, or without overviews):
-// read once, band by band and 256 rows at a time (the worker pool assembles the strips),
-// cut into 256 x 256 tiles, each coarser level averaged from the one below, kept in a
-// tile store. Later views read the store as if it were a tiled GeoTIFF with overviews:
+// read once, band by band and 256 rows at a time, cut into 256 x 256 tiles and each
+// coarser level averaged from the one below, all in the worker pool, kept in a tile
+// store. Later views read the store as if it were a tiled GeoTIFF with overviews:
 // the pyramid is described by a virtual summary whose block offsets are tile numbers.
 
 const TILE = 256;
@@ -76,7 +77,6 @@ export async function cachedPyramid(source: Raster, store: TileStore, options: P
 async function buildPyramid(source: Raster, summary: TiffSummary, store: TileStore, prefix: string, options: PyramidOptions): Promise<void> {
   const { onProgress = () => {}, signal } = options;
   const name = source.file.name;
-  const make = arrayMaker(summary.dtype);
   const fill = summary.nodata ?? 0;
   const totalTiles = summary.levels.reduce((n, l) => n + l.offsets.length, 0);
   let done = 0;
@@ -86,27 +86,20 @@ async function buildPyramid(source: Raster, summary: TiffSummary, store: TileSto
   };
   const report = () => onProgress({ label: `Building a tiled pyramid of ${name}`, fraction: done / totalTiles });
 
-  // Level 0: the file read once, 256 rows of one band at a time.
+  // Level 0: the file read once, 256 rows of one band at a time, cut into tiles in the pool.
   const base = summary.levels[0];
   for (let band = 0; band < summary.bands; band++) {
     for (let by = 0; by < base.blocksDown; by++) {
       if (signal?.aborted) throw new DOMException('the work was cancelled', 'AbortError');
       const box = { x0: 0, y0: by * TILE, x1: base.blocksAcross * TILE, y1: (by + 1) * TILE };
-      const [rows] = await source.readWindow(0, box, [band], signal);
-      const width = box.x1 - box.x0;
-      const entries: [string, ArrayBuffer][] = [];
-      for (let bx = 0; bx < base.blocksAcross; bx++) {
-        const tile = make(TILE * TILE);
-        for (let y = 0; y < TILE; y++) {
-          for (let x = 0; x < TILE; x++) {
-            const v = rows[y * width + bx * TILE + x];
-            tile[y * TILE + x] = Number.isNaN(v) ? fill : v;
-          }
-        }
-        entries.push([`${prefix}/${tileNumber(0, band, bx, by)}`, tile.buffer as ArrayBuffer]);
-      }
-      await store.put(entries);
-      done += entries.length;
+      const blocks = await source.blocksCovering(0, band, box, signal);
+      const tiles = (await source.pool.run({
+        payload: { kind: 'cut', tiles: blocks, box, tileSize: TILE, dtype: summary.dtype, fill },
+        transfer: uniqueBuffers(blocks),
+        signal,
+      })) as ArrayBuffer[];
+      await store.put(tiles.map((tile, bx) => [`${prefix}/${tileNumber(0, band, bx, by)}`, tile]));
+      done += tiles.length;
       report();
     }
   }
@@ -118,34 +111,20 @@ async function buildPyramid(source: Raster, summary: TiffSummary, store: TileSto
     for (let band = 0; band < summary.bands; band++) {
       for (let by = 0; by < info.blocksDown; by++) {
         if (signal?.aborted) throw new DOMException('the work was cancelled', 'AbortError');
-        const entries: [string, ArrayBuffer][] = [];
-        for (let bx = 0; bx < info.blocksAcross; bx++) {
+        const entries = await Promise.all(Array.from({ length: info.blocksAcross }, async (_, bx): Promise<[string, ArrayBuffer]> => {
           const children = await Promise.all([0, 1, 2, 3].map(async (k) => {
             const cx = bx * 2 + (k % 2), cy = by * 2 + (k >> 1);
             if (cx >= below.blocksAcross || cy >= below.blocksDown) return null;
             const bytes = await store.get(`${prefix}/${tileNumber(level - 1, band, cx, cy)}`);
-            return bytes ? make(bytes) : null;
+            return bytes ? bytes.slice(0) : null;
           }));
-          const tile = make(TILE * TILE);
-          for (let y = 0; y < TILE; y++) {
-            for (let x = 0; x < TILE; x++) {
-              const child = children[(y >= TILE / 2 ? 2 : 0) + (x >= TILE / 2 ? 1 : 0)];
-              let sum = 0, n = 0;
-              if (child) {
-                const sx = (x % (TILE / 2)) * 2, sy = (y % (TILE / 2)) * 2;
-                for (const [dx, dy] of [[0, 0], [1, 0], [0, 1], [1, 1]]) {
-                  const v = child[(sy + dy) * TILE + sx + dx];
-                  if (v !== summary.nodata && Number.isFinite(v)) {
-                    sum += v;
-                    n++;
-                  }
-                }
-              }
-              tile[y * TILE + x] = n ? (isInteger(summary.dtype) ? Math.round(sum / n) : sum / n) : fill;
-            }
-          }
-          entries.push([`${prefix}/${tileNumber(level, band, bx, by)}`, tile.buffer as ArrayBuffer]);
-        }
+          const tile = (await source.pool.run({
+            payload: { kind: 'reduce', children, tileSize: TILE, dtype: summary.dtype, noData: summary.nodata, fill },
+            transfer: children.filter((c): c is ArrayBuffer => c !== null),
+            signal,
+          })) as ArrayBuffer;
+          return [`${prefix}/${tileNumber(level, band, bx, by)}`, tile];
+        }));
         await store.put(entries);
         done += entries.length;
         report();
@@ -154,18 +133,6 @@ async function buildPyramid(source: Raster, summary: TiffSummary, store: TileSto
   }
   await store.put([[`${prefix}/complete`, new ArrayBuffer(1)]]);
 }
-
-const isInteger = (dtype: string) => !dtype.startsWith('float');
-
-function arrayMaker(dtype: TiffSummary['dtype']): (from: number | ArrayBuffer) => SampleArray {
-  const types = {
-    uint8: Uint8Array, int8: Int8Array, uint16: Uint16Array, int16: Int16Array,
-    uint32: Uint32Array, int32: Int32Array, float32: Float32Array, float64: Float64Array,
-  } as const;
-  const Type = types[dtype];
-  return (from) => (typeof from === 'number' ? new Type(from) : new Type(from)) as SampleArray;
-}
-
 /**
  * A raster ready for viewing: itself when it is tiled with overviews, else its pyramid
  * cache (built on first open, with progress). Where no tile store can be had, the file

@@ -2,7 +2,7 @@
 // The render worker: decodes compressed tiles (with their size capped to what the file
 // declares), does the band math (composite, index, pan-sharpening) and the stretch, and
 // returns finished RGBA tiles as ImageBitmaps, so the UI thread only draws.
-import { composeTile, readWindow, sampleWindow } from './composeTile.ts';
+import { composeTile, cutTiles, readWindow, reduceTile, sampleWindow } from './composeTile.ts';
 import type { RenderRequest } from './renderJobs.ts';
 import type { WorkerReply } from './WorkerPool.ts';
 
@@ -23,6 +23,14 @@ scope.onmessage = async (event: MessageEvent<{ id: number; request: RenderReques
       const bands = readWindow(request);
       result = bands;
       transfer = bands.map((b) => b.buffer);
+    } else if (request.kind === 'cut') {
+      const tiles = cutTiles(request);
+      result = tiles;
+      transfer = tiles;
+    } else if (request.kind === 'reduce') {
+      const tile = reduceTile(request);
+      result = tile;
+      transfer = [tile];
     } else {
       const { rgba, width, height } = composeTile(request);
       const bitmap = await createImageBitmap(new ImageData(rgba, width, height));

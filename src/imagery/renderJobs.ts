@@ -1,6 +1,7 @@
 import type { TileLayout } from '../core/tiff/decodeTile.ts';
 import type { StretchLimits } from '../core/render/stretch.ts';
 import type { SharpenMethod } from '../core/render/pansharpen.ts';
+import type { Dtype } from '../core/tiff/tags.ts';
 
 // The jobs of the render pool and their answers: typed once, shared by the page side
 // (Raster) and the worker.
@@ -86,6 +87,26 @@ export type RenderRequest =
       /** Per band, the blocks covering `box`. */
       bands: PlacedTile[][];
       box: PixelBox;
+    }
+  | {
+      /** A pyramid cache's row of base tiles: one band's blocks over `box`, cut into square tiles. */
+      kind: 'cut';
+      tiles: PlacedTile[];
+      box: PixelBox;
+      tileSize: number;
+      dtype: Dtype;
+      /** The value of pixels outside the image (no-data, else 0). */
+      fill: number;
+    }
+  | {
+      /** A pyramid cache's coarser tile: the 2 x 2 mean of the valid pixels of up to four child tiles. */
+      kind: 'reduce';
+      /** Top-left, top-right, bottom-left, bottom-right; null where the level below has none. */
+      children: (ArrayBuffer | null)[];
+      tileSize: number;
+      dtype: Dtype;
+      noData: number | null;
+      fill: number;
     };
 
 /** The answer to a 'sample' job: sorted valid values, their mean and sd. */
@@ -105,7 +126,7 @@ export interface RgbaTile {
 /** A finished tile: a bitmap from the worker pool, or bytes from the in-thread runner. */
 export type TileImage = ImageBitmap | RgbaTile;
 
-export type RenderResult = TileImage | SampleReply | Float32Array[];
+export type RenderResult = TileImage | SampleReply | Float32Array[] | ArrayBuffer[] | ArrayBuffer;
 
 /** What runs render jobs: the worker pool, or the in-thread runner (tests, benchmarks, the CLI). */
 export interface JobRunner {
