@@ -41,13 +41,15 @@ export function storageError(error: unknown, siteName: string): StorageError {
     );
   }
   const first = chain(error)[0];
+  // Dexie appends the inner error's text on further lines; one line is enough to show.
+  const said = `${first?.name ?? 'Error'}: ${(first?.message ?? String(error)).split('\n')[0]}`;
   // A transaction aborted with no other cause: what Chromium reports when the disk itself
   // fills before the quota is reached.
   const links = chain(error);
   const aborted = (e: { name?: string }) => e.name === 'AbortError' || e.name === 'UnknownError';
   if (links.some(aborted) && links.every((e) => aborted(e) || e.name === 'Error')) {
     return new StorageError(
-      `Site "${siteName}": the last change was not saved because the browser's storage refused it (${first?.name ?? 'Error'}: ${first?.message ?? ''}); a full disk is the usual cause. ` +
+      `Site "${siteName}": the last change was not saved because the browser's storage refused it (${said}); a full disk is the usual cause. ` +
         'Everything saved before it is kept. Free some disk space, save a backup of this site to another disk, then try the change again.',
       'refused',
       error,
@@ -55,11 +57,11 @@ export function storageError(error: unknown, siteName: string): StorageError {
   }
   if (first?.name === 'InvalidStateError' || first?.name === 'UnknownError' || first?.name === 'DatabaseClosedError') {
     return new StorageError(
-      `Site "${siteName}": the browser's storage is not available (${first.name}: ${first.message ?? ''}). ` +
+      `Site "${siteName}": the browser's storage is not available (${said}). ` +
         'Close other windows of the app and reopen the site; if the store stays unreadable, restore it from the copy on disk or a backup.',
       'unavailable',
       error,
     );
   }
-  return new StorageError(`Site "${siteName}": saving failed: ${first?.message ?? String(error)}`, 'other', error);
+  return new StorageError(`Site "${siteName}": saving failed (${said})`, 'other', error);
 }
