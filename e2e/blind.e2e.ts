@@ -98,6 +98,18 @@ describe('a blind pass on the demo', () => {
     expect(stats.distinctHues).toBe(0);
     await screenshot(page, 'blind-pass-neutral');
 
+    // Paused, the keys do not call; resumed, they do again.
+    await page.locator('[data-testid="blind-mine"] button:has-text("Pause")').click();
+    await blur(page);
+    await page.keyboard.press('u');
+    await expect.poll(() => inHand(page)).toMatch(/^F\d+$/);
+    await page.keyboard.press(roster[0].key);
+    await expect.poll(() => page.locator('.patch-panel .notice').textContent()).toContain('The blind pass is paused');
+    expect(await page.locator('[data-testid="own-tag"]').textContent()).toContain('No call of yours');
+    await page.locator('[data-testid="blind-mine"] button:has-text("Resume")').click();
+    await blur(page);
+    await page.keyboard.press('Escape'); // let go of the patch: the walk below starts from the pass's first
+
     // Walk the pass in its own order and check each patch in hand shows no earlier call.
     for (let i = 0; i < SAMPLE; i++) {
       await page.keyboard.press('u');
