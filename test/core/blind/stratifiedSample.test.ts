@@ -38,6 +38,30 @@ describe('proportionalAllocation', () => {
     }
   });
 
+  // scikit-learn 1.2.1 (Debian python3-sklearn), sklearn.utils._approximate_mode, the
+  // allocation StratifiedShuffleSplit uses (floors, then the largest remainders); values
+  // printed once by /usr/bin/python3 -c "import numpy as np; from sklearn.utils import
+  // _approximate_mode as m; print(m(np.array(SIZES), N, np.random.RandomState(0)))".
+  // None of these cases has tied remainders, where scikit-learn breaks ties at random.
+  const sklearnCases: [number[], number, number[]][] = [
+    [[15, 1, 5, 9], 10, [5, 0, 2, 3]],
+    [[50, 30, 20], 10, [5, 3, 2]],
+    [[7, 1, 1, 40, 12, 3], 17, [2, 0, 0, 11, 3, 1]],
+    [[120, 45, 33, 8, 2], 50, [29, 11, 8, 2, 0]],
+    [[13, 11, 7, 5, 3, 2], 21, [7, 6, 4, 2, 1, 1]],
+    [[1000, 10, 1], 37, [37, 0, 0]],
+  ];
+  for (const [sizes, n, expected] of sklearnCases) {
+    it(`matches scikit-learn's allocation for ${sizes.join(', ')} and n = ${n} (without the floor)`, () => {
+      expect(proportionalAllocation(sizes, n, false)).toEqual(expected);
+    });
+  }
+
+  it('with the floor, takes the one for a rare stratum from the one most above its quota (worked by hand)', () => {
+    // quotas 28.85, 10.82, 7.93, 1.92, 0.48; drawn − quota 0.15, 0.18, 0.07, 0.08 → the second gives.
+    expect(proportionalAllocation([120, 45, 33, 8, 2], 50)).toEqual([29, 10, 8, 2, 1]);
+  });
+
   it('refuses a sample size that is not a whole number', () => {
     expect(() => proportionalAllocation([3], -1)).toThrow(/whole number/);
     expect(() => proportionalAllocation([3], 1.5)).toThrow(/whole number/);
