@@ -69,6 +69,8 @@ describe('a blind pass on the demo', () => {
     await panel.locator('input[aria-label="Sample size"]').fill(String(SAMPLE));
     await panel.locator('input[aria-label="Sample seed"]').fill('3');
     await panel.locator('input[aria-label="Second interpreter"]').fill('Ben Blind');
+    await panel.scrollIntoViewIfNeeded();
+    await screenshot(page, 'blind-pass-start');
     await panel.locator('button:has-text("Start blind pass")').click();
     await expect.poll(() => panel.locator('[role="status"]').textContent()).toMatch(new RegExp(`Blind pass blind-ben-blind-1 for Ben Blind: ${SAMPLE} patches: a sample stratified by species, seed 3`));
   });
