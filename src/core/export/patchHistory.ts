@@ -9,7 +9,11 @@ import type { LedgerEvent } from '../site/events.ts';
 const SAME_OFFSET_M = 1e-6;
 
 export type GeometryChange =
-  | { kind: 'shift'; seq: number; by: string; time: string; dx: number; dy: number; undo: boolean }
+  | {
+      kind: 'shift'; seq: number; by: string; time: string; dx: number; dy: number; undo: boolean;
+      /** for an estimated field-to-imagery shift: its 95 % radius (metres) and method */
+      uncertaintyM?: number; method?: string;
+    }
   | { kind: 'edit'; seq: number; by: string; time: string; undo: boolean };
 
 export interface PatchOrigin {
@@ -66,6 +70,20 @@ export function patchHistory(events: readonly LedgerEvent[]): PatchHistory {
       const list = changes.get(patchId);
       if (list) list.push(change);
       else changes.set(patchId, [change]);
+    } else if (e.kind === 'patches.shifted') {
+      // An estimated shift moves the set; moving back (restore, or its undo) is the shift reversed.
+      const { direction, record, outlines } = e.payload;
+      const sign = direction === 'apply' ? 1 : -1;
+      const undo = e.undoes !== undefined;
+      for (const o of outlines) {
+        const offset = translationBetween(o.previous, o.geometry) ?? [sign * record.shift.dx, sign * record.shift.dy];
+        const change: GeometryChange = {
+          kind: 'shift', ...stamp, dx: offset[0], dy: offset[1], undo, uncertaintyM: record.uncertaintyM, method: record.method,
+        };
+        const list = changes.get(o.patchId);
+        if (list) list.push(change);
+        else changes.set(o.patchId, [change]);
+      }
     }
   }
   return { origin, changes };

@@ -33,7 +33,7 @@ export type ExportedSource =
 
 export type ExportedTransformation =
   | { kind: 'reprojection'; from: string; to: string }
-  | { kind: 'shift'; dx: number; dy: number; by: string; time: string; ledger_seq: number; undo: boolean }
+  | { kind: 'shift'; dx: number; dy: number; by: string; time: string; ledger_seq: number; undo: boolean; uncertainty_m?: number; method?: string }
   | { kind: 'edit'; by: string; time: string; ledger_seq: number; undo: boolean };
 
 export interface ExportedPatch {
@@ -142,7 +142,10 @@ function transformationsOf(patch: Patch, state: SiteState, history: PatchHistory
   }
   for (const c of history.changes.get(patch.id) ?? []) {
     out.push(c.kind === 'shift'
-      ? { kind: 'shift', dx: c.dx, dy: c.dy, by: c.by, time: c.time, ledger_seq: c.seq, undo: c.undo }
+      ? {
+          kind: 'shift', dx: c.dx, dy: c.dy, by: c.by, time: c.time, ledger_seq: c.seq, undo: c.undo,
+          ...(c.uncertaintyM !== undefined ? { uncertainty_m: c.uncertaintyM, method: c.method } : {}),
+        }
       : { kind: 'edit', by: c.by, time: c.time, ledger_seq: c.seq, undo: c.undo });
   }
   return out;

@@ -1,5 +1,5 @@
 import { SiteRuleError } from './SiteRuleError.ts';
-import { UNDOABLE_KINDS, type LedgerEvent } from './events.ts';
+import { UNDOABLE_KINDS, type LedgerEvent, type ShiftedOutline } from './events.ts';
 import { UNDO_DEPTH, type SiteState } from './state.ts';
 import { tagKey, type Patch, type Tag } from './types.ts';
 
@@ -43,6 +43,35 @@ function removePatches(state: SiteState, patches: Patch[], tags: Tag[]): Partial
   return { patches: withDeleted(state.patches, ids), tags: withDeleted(state.tags, listed) };
 }
 
+/** Two outlines with the same parts, rings and positions (numbers compared exactly). */
+function sameOutline(a: Patch['geometry'], b: Patch['geometry']): boolean {
+  if (a === b) return true;
+  if (a.length !== b.length) return false;
+  for (let p = 0; p < a.length; p++) {
+    if (a[p].length !== b[p].length) return false;
+    for (let r = 0; r < a[p].length; r++) {
+      const ra = a[p][r], rb = b[p][r];
+      if (ra.length !== rb.length) return false;
+      for (let i = 0; i < ra.length; i++) if (ra[i][0] !== rb[i][0] || ra[i][1] !== rb[i][1]) return false;
+    }
+  }
+  return true;
+}
+
+/** A shift moves many outlines at once; each must still be where the event found it, so a stale shift never half-applies. */
+function withShiftedOutlines(state: SiteState, outlines: readonly ShiftedOutline[]) {
+  const seen = new Set<string>();
+  const moved: [string, Patch][] = [];
+  for (const o of outlines) {
+    if (seen.has(o.patchId)) throw new SiteRuleError(`patch ${o.patchId} is moved twice by one shift`);
+    seen.add(o.patchId);
+    const patch = requirePatch(state, o.patchId);
+    if (!sameOutline(patch.geometry, o.previous)) throw new SiteRuleError(`patch ${o.patchId} changed since the shift was worked out`);
+    moved.push([patch.id, { ...patch, geometry: o.geometry }]);
+  }
+  return withSet(state.patches, moved);
+}
+
 function applyChange(state: SiteState, event: LedgerEvent): Partial<SiteState> {
   switch (event.kind) {
     case 'site.created':
@@ -64,6 +93,8 @@ function applyChange(state: SiteState, event: LedgerEvent): Partial<SiteState> {
       const patch = requirePatch(state, event.payload.patchId);
       return { patches: withSet(state.patches, [[patch.id, { ...patch, geometry: event.payload.geometry }]]) };
     }
+    case 'patches.shifted':
+      return { patches: withShiftedOutlines(state, event.payload.outlines) };
     case 'tag.set': {
       const { patchId, passId, tag } = event.payload;
       requirePatch(state, patchId);

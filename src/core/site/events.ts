@@ -1,6 +1,14 @@
 import type {
   ImportRecord, Pass, Patch, ReferenceFeature, RosterEntry, Ruling, SceneRef, Site, Tag,
 } from './types.ts';
+import type { ShiftRecord } from '../offset/shiftPatches.ts';
+
+/** One patch's outline in a shift: where it goes and where it was. */
+export interface ShiftedOutline {
+  patchId: string;
+  geometry: Patch['geometry'];
+  previous: Patch['geometry'];
+}
 
 // The ledger's event kinds. Each change to a site is exactly one of these. Events that
 // can be undone carry both the new and the previous value, so their inverse is another
@@ -17,6 +25,12 @@ export interface EventPayloads {
   'patch.added': { patch: Patch; tags: Tag[] };
   'patch.deleted': { patch: Patch; tags: Tag[] };
   'patch.geometry': { patchId: string; geometry: Patch['geometry']; previous: Patch['geometry'] };
+  /**
+   * A set of patches moved by one estimated field-to-imagery shift (`direction`
+   * 'apply'), or moved back to where they were ('restore'). `shiftId` names the
+   * application, so its undo, redo and restore read as the same one.
+   */
+  'patches.shifted': { shiftId: string; direction: 'apply' | 'restore'; record: ShiftRecord; outlines: ShiftedOutline[] };
   /** A tag set, changed or (tag null) removed; `previous` is what it replaced. */
   'tag.set': { patchId: string; passId: string; tag: Tag | null; previous: Tag | null };
   /** A field file imported: its record, new patches, their tags, reference features. */
@@ -32,7 +46,7 @@ export type EventKind = keyof EventPayloads;
 
 export const EVENT_KINDS = [
   'site.created', 'site.renamed', 'scene.added', 'roster.set', 'patch.added', 'patch.deleted',
-  'patch.geometry', 'tag.set', 'import.added', 'import.removed', 'pass.started', 'pass.ended',
+  'patch.geometry', 'patches.shifted', 'tag.set', 'import.added', 'import.removed', 'pass.started', 'pass.ended',
   'ruling.recorded', 'ruling.reopened',
 ] as const satisfies readonly EventKind[];
 
@@ -63,6 +77,6 @@ export type LedgerEvent = EventDraft & {
 
 /** The kinds that go on the undo stack. */
 export const UNDOABLE_KINDS: ReadonlySet<EventKind> = new Set<EventKind>([
-  'site.renamed', 'roster.set', 'patch.added', 'patch.deleted', 'patch.geometry', 'tag.set',
+  'site.renamed', 'roster.set', 'patch.added', 'patch.deleted', 'patch.geometry', 'patches.shifted', 'tag.set',
   'import.added', 'import.removed',
 ]);

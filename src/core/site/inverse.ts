@@ -19,6 +19,16 @@ export function inverseOf(event: LedgerEvent): Change {
         kind: 'patch.geometry',
         payload: { patchId: event.payload.patchId, geometry: event.payload.previous, previous: event.payload.geometry },
       };
+    case 'patches.shifted': {
+      const { shiftId, direction, record, outlines } = event.payload;
+      return {
+        kind: 'patches.shifted',
+        payload: {
+          shiftId, record, direction: direction === 'apply' ? 'restore' : 'apply',
+          outlines: outlines.map((o) => ({ patchId: o.patchId, geometry: o.previous, previous: o.geometry })),
+        },
+      };
+    }
     case 'tag.set':
       return {
         kind: 'tag.set',

@@ -37,6 +37,9 @@ export function touchedRows(event: LedgerEvent): TouchedRows {
     case 'patch.geometry':
       rows.patches.push(event.payload.patchId);
       break;
+    case 'patches.shifted':
+      rows.patches.push(...event.payload.outlines.map((o) => o.patchId));
+      break;
     case 'tag.set':
       rows.tags.push(tagKey(event.payload.patchId, event.payload.passId));
       break;
