@@ -23,7 +23,9 @@ export function rulingsQueue(state: SiteState, interpreter: string): RulingsQueu
   const inputs = [...view.patches.values()].map((p) => {
     const tags = tagsOf.get(p.id) ?? [];
     const settled = consensus(tags, rulings.filter((r) => r.patchId === p.id)).species;
-    return { id: p.id, species: settled ?? tags[0]?.species ?? '', tags: tags.map((t) => ({ species: t.species })), rings: p.geometry };
+    // The calls are left out of the check: differing calls are already a queue kind of
+    // their own, so only a patch called or ruled mixed, or overlapping another species, is a finding.
+    return { id: p.id, species: settled ?? tags[0]?.species ?? '', rings: p.geometry };
   });
   const findings = runChecks(inputs).findings;
   return { view, items: disagreementQueue({ state: view, findings }), findings };

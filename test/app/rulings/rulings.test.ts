@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { recordRuling } from '../../../src/app/rulings/recordRuling.ts';
 import { reopenRuling } from '../../../src/app/rulings/reopenRuling.ts';
 import { sendToThirdReader } from '../../../src/app/rulings/sendToThirdReader.ts';
+import { rulingsQueue } from '../../../src/app/rulings/rulingsQueue.ts';
 import { verifyChain } from '../../../src/core/ledger/chain.ts';
 import { disagreementQueue, queueProgress, RulingError, siteConsensus } from '../../../src/core/rulings/index.ts';
 import { emptySiteState, replay, tagsOfPatch, type SiteState } from '../../../src/core/site/index.ts';
@@ -134,5 +135,20 @@ describe('recording and reopening rulings', () => {
     await endBlindPass(site, pass.id, { interpreter: 'eve', time: at() });
     const item = disagreementQueue({ state: site.state }).find((i) => i.patchId === 'P1')!;
     expect(item.calls.map((c) => [c.interpreter, c.species])).toEqual([['ak', 'PICE'], ['bo', 'ALVI'], ['eve', 'ALVI']]);
+  });
+
+  it('builds the page queue through the checks: a patch called mixed is a finding, differing calls are not twice', async () => {
+    const { site } = await ruledSite([
+      { size: 10, first: 'PICE', second: { species: 'ALVI' } },
+      { size: 8, first: 'mixed' },
+      { size: 6, first: 'ALVI' },
+    ]);
+    const { items, findings } = rulingsQueue(site.state, 'cy');
+    expect(items.map((i) => [i.patchId, i.kinds])).toEqual([['P1', ['species']], ['P2', ['mixed']]]);
+    expect(items[1].notes[0]).toMatch(/patch P2 is tagged as mixed/);
+    expect(findings.some((f) => f.kind === 'mixed-tag' && f.patches.includes('P2'))).toBe(true);
+    // A ruling settles the mixed one like any other.
+    await recordRuling(site, { patchId: 'P2', decision: { kind: 'mixed' }, seen: null }, ruler());
+    expect(queueProgress(rulingsQueue(site.state, 'cy').items)).toEqual({ settled: 1, open: 1, total: 2 });
   });
 });

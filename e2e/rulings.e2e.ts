@@ -1,0 +1,157 @@
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { openApp, screenshot, type Session } from './browser.ts';
+
+// Settling disagreements on the demo by keyboard, in Chromium with real IndexedDB. The
+// disagreements are seeded through the app itself: a blind second look by another
+// interpreter on the desk, some calls differing from the field file's. A third person
+// then settles each on the Rulings page without the mouse — accept A, accept B, and a
+// species overruling both, which asks for a reason — and the export's preview shows the
+// open disagreements gone. The agreement sheet compares passes only (rulings do not
+// change kappa), so it is not asked about rulings here.
+
+const demo = join(import.meta.dirname, '..', 'demo');
+const field = JSON.parse(readFileSync(join(demo, 'field.geojson'), 'utf8')) as { features: { properties: { id: string; species: string } }[] };
+const roster = (JSON.parse(readFileSync(join(demo, 'roster.json'), 'utf8')) as { species: { code: string; key: string }[] }).species;
+const fieldCall = new Map(field.features.map((f) => [f.properties.id, f.properties.species]));
+const keyOf = new Map(roster.map((r) => [r.code, r.key]));
+const other = (code: string, not: string[] = []) => roster.find((r) => r.code !== code && !not.includes(r.code))!.code;
+
+let session: Session | null = null;
+afterAll(async () => {
+  await session?.close();
+});
+
+async function mapReady(page: Page, testid = 'map') {
+  await page.waitForTimeout(150);
+  await page.waitForSelector(`[data-testid="${testid}"][data-ready="true"]`, { timeout: 90_000 });
+}
+const inHand = (page: Page) => page.locator('[data-testid="patch-in-hand"] .id b').textContent();
+const saved = (page: Page) => page.locator('[data-testid="save-status"]').textContent();
+const blur = (page: Page) => page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
+const rulingPatch = async (page: Page) => (await page.locator('[data-testid="ruling-patch"]').textContent())?.match(/Patch (\S+)/)?.[1] ?? null;
+const progress = async (page: Page) => {
+  const text = (await page.locator('[data-testid="rulings-progress"]').textContent()) ?? '';
+  const m = text.match(/(\d+) settled · (\d+) open/);
+  return m ? { settled: Number(m[1]), open: Number(m[2]) } : null;
+};
+
+async function openDisagreementsInExport(page: Page): Promise<{ open: number; out: number }> {
+  await page.locator('nav button:has-text("Export")').click();
+  await page.locator('select[aria-label="Open disagreements"]').selectOption('leave-out');
+  await expect.poll(() => page.locator('[data-testid="export-count"]').count(), { timeout: 30_000 }).toBe(1);
+  await page.waitForTimeout(300);
+  const text = (await page.locator('.preview').textContent()) ?? '';
+  return { open: Number(text.match(/(\d+) left out: open disagreement/)?.[1] ?? 0), out: Number(await page.locator('[data-testid="export-count"]').textContent()) };
+}
+
+const SAMPLE = 8;
+/** What the second look calls, by position in its order: 0 can't tell, 1 and 5 another species. */
+function secondCall(index: number, id: string): string {
+  const first = fieldCall.get(id)!;
+  if (index === 0) return "can't tell";
+  if (index === 1 || index === 5) return other(first);
+  return first;
+}
+
+describe('settling disagreements on the Rulings page', () => {
+  const calls = new Map<string, string>();
+  const order: string[] = [];
+  let before = { open: 0, out: 0 };
+
+  it('seeds disagreements with a blind second look made on the desk', async () => {
+    session = await openApp();
+    const { page } = session;
+    await mapReady(page);
+    const panel = page.locator('[data-testid="blind-panel"]');
+    await panel.locator('select[aria-label="Which patches"]').selectOption('sample');
+    await panel.locator('input[aria-label="Sample size"]').fill(String(SAMPLE));
+    await panel.locator('input[aria-label="Sample seed"]').fill('5');
+    await panel.locator('input[aria-label="Second interpreter"]').fill('Ben Blind');
+    await panel.locator('button:has-text("Start blind pass")').click();
+    await expect.poll(() => panel.locator('[role="status"]').textContent()).toMatch(/Blind pass blind-ben-blind-1 for Ben Blind/);
+    await panel.locator('input[aria-label="New interpreter name"]').fill('Ben Blind');
+    await panel.locator('input[aria-label="New interpreter initials"]').fill('BB');
+    await panel.locator('button:has-text("Add")').click();
+    await expect.poll(() => page.locator('[data-testid="blind-mine"]').count()).toBe(1);
+    await blur(page);
+    for (let i = 0; i < SAMPLE; i++) {
+      await page.keyboard.press('u');
+      await expect.poll(() => inHand(page)).toMatch(/^F\d+$/);
+      const id = (await inHand(page))!;
+      const call = secondCall(i, id);
+      calls.set(id, call);
+      order.push(id);
+      await page.keyboard.press(call === "can't tell" ? 'z' : keyOf.get(call)!);
+      await expect.poll(() => page.locator('[data-testid="own-tag"]').textContent()).toContain(call);
+    }
+    await expect.poll(() => saved(page)).toContain('All saved');
+    await page.locator('[data-testid="blind-panel"] button:has-text("End the pass")').click();
+    await expect.poll(() => page.locator('[data-testid="blind-mine"]').count()).toBe(0);
+    // The person ruling is a third interpreter.
+    await panel.locator('input[aria-label="New interpreter name"]').fill('Cleo Ruler');
+    await panel.locator('input[aria-label="New interpreter initials"]').fill('CR');
+    await panel.locator('button:has-text("Add")').click();
+    await page.locator('select[aria-label="Interpreter at the desk"]').selectOption('Cleo Ruler');
+    await expect.poll(() => page.locator('select[aria-label="Interpreter at the desk"]').inputValue()).toBe('Cleo Ruler');
+    before = await openDisagreementsInExport(page);
+    expect(before.open).toBeGreaterThanOrEqual(3);
+  });
+
+  it('settles the seeded disagreements by keyboard alone', async () => {
+    const { page } = session!;
+    await page.locator('nav button:has-text("Rulings")').click();
+    await expect.poll(() => progress(page)).not.toBeNull();
+    const start = (await progress(page))!;
+    expect(start.open).toBeGreaterThanOrEqual(3);
+    await blur(page);
+    await mapReady(page, 'ruling-map');
+    const seeded = { accA: order[1], accB: order[5], cantTell: order[0] };
+    // Each call of the patch in hand is revealed: the field file's and Ben's with its confidence.
+    const pending = new Set(Object.values(seeded));
+    for (let step = 0; step < start.open * 2 + 4 && pending.size; step++) {
+      const id = await rulingPatch(page);
+      if (id && pending.has(id)) {
+        const hand = await page.locator('[data-testid="ruling-hand"]').innerText();
+        expect(hand).toContain('Ben Blind');
+        expect(hand).toContain(calls.get(id)!);
+        if (id === seeded.accA) await page.keyboard.press('Shift+A');
+        else if (id === seeded.accB) await page.keyboard.press('Shift+B');
+        else {
+          // Neither "can't tell" nor the field's species: overruling both asks for a reason.
+          const species = other(fieldCall.get(id)!, ["can't tell"]);
+          await page.keyboard.press(keyOf.get(species)!);
+          await expect.poll(() => page.locator('[data-testid="ruling-message"]').textContent()).toMatch(/overrides every call: write the reason/);
+          await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('data-testid'))).toBe('ruling-reason');
+          await page.keyboard.type('crowns read on the second date');
+          await page.keyboard.press('Enter');
+        }
+        await expect.poll(() => page.locator('[data-testid="ruling-message"]').textContent()).toMatch(new RegExp(`Patch ${id}: .*\\(ruling-\\d+\\)`));
+        pending.delete(id);
+        await blur(page);
+        continue;
+      }
+      await page.keyboard.press('ArrowDown');
+      await page.waitForTimeout(50);
+    }
+    expect([...pending]).toEqual([]);
+    await expect.poll(() => progress(page)).toEqual({ settled: start.settled + 3, open: start.open - 3 });
+    // The settled list shows each ruling with its reason.
+    await page.locator('[data-testid="filter-status"]').selectOption('settled');
+    await expect.poll(() => page.locator('[data-testid="rulings-queue"] li button').count()).toBe(start.settled + 3);
+    await page.locator(`[data-testid="rulings-queue"] button[data-patch="${seeded.cantTell}"]`).click();
+    await expect.poll(() => page.locator('[data-testid="ruling-history"]').textContent()).toContain('crowns read on the second date');
+    await expect.poll(() => page.locator('[data-testid="ruling-consensus"]').getAttribute('data-status')).toBe('ruled');
+    await mapReady(page, 'ruling-map');
+    await screenshot(page, 'rulings-settled');
+  });
+
+  it('lets the export take the ruled patches', async () => {
+    const { page } = session!;
+    const after = await openDisagreementsInExport(page);
+    expect(after.open).toBe(before.open - 3);
+    expect(after.out).toBe(before.out + 3);
+  });
+});
