@@ -15,6 +15,11 @@ export interface Actor {
   time: string;
 }
 
+/** Who a pass is for, and who started it (the ledger's actor; default: the same person). */
+export interface PassRequest extends Actor {
+  by?: string;
+}
+
 function slug(name: string): string {
   return name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'interpreter';
 }
@@ -45,7 +50,7 @@ export interface StartedPass {
  * order. A second look must come from someone else: patches the same interpreter
  * called last are refused, with how many.
  */
-export async function startBlindPass(store: SiteWriter, selection: PatchSelection, actor: Actor): Promise<StartedPass> {
+export async function startBlindPass(store: SiteWriter, selection: PatchSelection, actor: PassRequest): Promise<StartedPass> {
   const interpreter = actor.interpreter.trim();
   if (!interpreter) throw new BlindError('Choose the interpreter who makes the second look.');
   let started: StartedPass | null = null;
@@ -61,18 +66,18 @@ export async function startBlindPass(store: SiteWriter, selection: PatchSelectio
     const patchIds = shuffledOrder(selected.patchIds, await orderSeed(id, actor.time));
     const pass: Pass = { id, interpreter, blind: true, startedAt: actor.time, endedAt: null, patchIds };
     started = { pass, selected };
-    return { kind: 'pass.started', payload: { pass }, actor: interpreter, time: actor.time };
+    return { kind: 'pass.started', payload: { pass }, actor: actor.by ?? interpreter, time: actor.time };
   });
   return started!;
 }
 
 /** Starts an independent delineation: a blind pass asking for no patch, in which the interpreter draws their own. */
-export async function startDelineation(store: SiteWriter, actor: Actor): Promise<Pass> {
+export async function startDelineation(store: SiteWriter, actor: PassRequest): Promise<Pass> {
   let pass: Pass | null = null;
   await store.commitWith((state) => {
     refuseIfBusy(state, actor.interpreter);
     pass = { id: newPassId(state, actor.interpreter, 'draw'), interpreter: actor.interpreter, blind: true, startedAt: actor.time, endedAt: null, patchIds: [] };
-    return { kind: 'pass.started', payload: { pass }, actor: actor.interpreter, time: actor.time };
+    return { kind: 'pass.started', payload: { pass }, actor: actor.by ?? actor.interpreter, time: actor.time };
   });
   return pass!;
 }

@@ -21,8 +21,9 @@ async function site() {
 describe('a blind pass on one machine', () => {
   it('starts over the chosen patches in shuffled order, tags with blind answers, shows progress and ends', async () => {
     const store = await site();
-    const { pass, selected } = await startBlindPass(store, { kind: 'unsure' }, at('ben'));
+    const { pass, selected } = await startBlindPass(store, { kind: 'unsure' }, { ...at('ben'), by: 'ana' });
     expect(pass.blind).toBe(true);
+    expect(store.events.at(-1)!.actor).toBe('ana'); // who started it, for ben
     expect([...pass.patchIds!].sort()).toEqual(selected.patchIds);
     expect(pass.patchIds).not.toEqual(selected.patchIds); // shuffled (10 ids: a 1 in 3.6 million chance to come out sorted)
     expect(passProgress(store.state, pass)).toEqual({ total: 10, called: 0, next: pass.patchIds![0] });
