@@ -1,5 +1,5 @@
 import { readFileSync } from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { appliedShifts } from '../../../src/app/offset/appliedShifts.ts';
 import { applyShift, restoreOriginals } from '../../../src/app/offset/applyShift.ts';
 import { checkRequest, estimateOffset, type EstimateProgress, type OffsetRun } from '../../../src/app/offset/estimateOffset.ts';
@@ -54,10 +54,9 @@ beforeAll(async () => {
   }));
   const ms = await openRasterFile(site.ms);
   const pan = await openRasterFile(site.pan);
-  scene = { date: '2025-07-21', pan: { raster: pan, limits: { min: 0, max: 1 } }, ms: { raster: ms, bands: [], naturalColour: { bands: [2, 1, 0], limits: [{ min: 0, max: 1 }, { min: 0, max: 1 }, { min: 0, max: 1 }] } } };
+  const limits = { min: 0, max: 1, gamma: 1 };
+  scene = { date: '2025-07-21', pan: { raster: pan, limits }, ms: { raster: ms, bands: [], naturalColour: { bands: [2, 1, 0], limits: [limits, limits, limits] } } };
 });
-
-afterAll(() => undefined);
 
 describe('estimateOffset', () => {
   let run: OffsetRun;
