@@ -154,4 +154,40 @@ describe('settling disagreements on the Rulings page', () => {
     expect(after.open).toBe(before.open - 3);
     expect(after.out).toBe(before.out + 3);
   });
+
+  it('two windows ruling on one patch: the second is refused and told to reopen, the first stands', async () => {
+    const { page, context } = session!;
+    const message = (p: Page) => p.locator('[data-testid="ruling-message"]').textContent();
+    const target = order[1];
+    await page.locator('nav button:has-text("Rulings")').click();
+    await page.locator('[data-testid="filter-status"]').selectOption('settled');
+    await page.locator(`[data-testid="rulings-queue"] button[data-patch="${target}"]`).click();
+    await page.locator('[data-testid="ruling-reason"]').fill('look again on the second date');
+    await blur(page);
+    await page.keyboard.press('Shift+R');
+    await expect.poll(() => message(page)).toMatch(/reopened; it stays in the history/);
+
+    // A second window of the same profile opens the site and shows the reopened patch.
+    const other = await context.newPage();
+    await other.goto(page.url());
+    await other.locator('nav button:has-text("Rulings")').click();
+    await other.locator(`[data-testid="rulings-queue"] button[data-patch="${target}"]`).click();
+    await blur(other);
+    await expect.poll(() => rulingPatch(other)).toBe(target);
+
+    await page.keyboard.press('Shift+A');
+    await expect.poll(() => message(page)).toMatch(new RegExp(`Patch ${target}: accept the call of pass field`));
+    await other.keyboard.press('Shift+B');
+    await expect.poll(() => message(other)).toMatch(/changed in another window .*nothing was recorded here\. Reopen the site/);
+
+    // Reopened, the second window sees the first window's ruling and the whole history.
+    await other.reload();
+    await other.locator('nav button:has-text("Rulings")').click();
+    await other.locator('[data-testid="filter-status"]').selectOption('all');
+    await other.locator(`[data-testid="rulings-queue"] button[data-patch="${target}"]`).click();
+    await expect.poll(() => other.locator('[data-testid="ruling-consensus"]').textContent()).toContain(`ruled: ${fieldCall.get(target)}`);
+    expect(await other.locator('[data-testid="ruling-history"] li').count()).toBe(2);
+    expect(await other.locator('[data-testid="ruling-history"]').textContent()).toContain('reopened by Cleo Ruler');
+    await other.close();
+  });
 });
