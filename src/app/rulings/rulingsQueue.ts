@@ -2,7 +2,7 @@ import { blindView } from '../../core/blind/index.ts';
 import { runChecks } from '../../core/checks/runChecks.ts';
 import type { Finding } from '../../core/checks/findings.ts';
 import { consensus, disagreementQueue, type QueueItem } from '../../core/rulings/index.ts';
-import type { SiteState, Tag } from '../../core/site/index.ts';
+import type { Ruling, SiteState, Tag } from '../../core/site/index.ts';
 
 // The queue as the person ruling sees it: the site through the blind view (open blind
 // passes stay hidden, so their calls never reach the rulings page early), with the
@@ -19,10 +19,11 @@ export function rulingsQueue(state: SiteState, interpreter: string): RulingsQueu
   const view = blindView(state, interpreter);
   const tagsOf = new Map<string, Tag[]>();
   for (const t of view.tags.values()) tagsOf.set(t.patchId, [...(tagsOf.get(t.patchId) ?? []), t]);
-  const rulings = [...view.rulings.values()];
+  const rulingsOf = new Map<string, Ruling[]>();
+  for (const r of view.rulings.values()) rulingsOf.set(r.patchId, [...(rulingsOf.get(r.patchId) ?? []), r]);
   const inputs = [...view.patches.values()].map((p) => {
     const tags = tagsOf.get(p.id) ?? [];
-    const settled = consensus(tags, rulings.filter((r) => r.patchId === p.id)).species;
+    const settled = consensus(tags, rulingsOf.get(p.id) ?? []).species;
     // The calls are left out of the check: differing calls are already a queue kind of
     // their own, so only a patch called or ruled mixed, or overlapping another species, is a finding.
     return { id: p.id, species: settled ?? tags[0]?.species ?? '', rings: p.geometry };
