@@ -1,4 +1,4 @@
-import { namesNoSpecies } from '../../core/blind/index.ts';
+import { namesNoSpecies, openBlindPassOf } from '../../core/blind/index.ts';
 import { reasonProblem, rulingInForce, RulingError } from '../../core/rulings/index.ts';
 import { isTaggable, tagsOfPatch, type Ruling, type RulingDecision, type SiteState } from '../../core/site/index.ts';
 import { StorageError } from '../../store/StorageError.ts';
@@ -60,6 +60,8 @@ export async function recordRuling(store: SiteWriter, input: RulingInput, actor:
   try {
     await store.commitWith((state) => {
       const { patchId, decision } = input;
+      const blind = openBlindPassOf(state, by);
+      if (blind) throw new RulingError(`${by} is in blind pass ${blind.id}: rulings reveal every call, so they wait until that pass ends.`, patchId);
       if (!state.patches.has(patchId)) {
         throw new RulingError(`Patch ${patchId} is no longer in the site (deleted meanwhile?): nothing was recorded. Undo the deletion on the desk to rule on it.`, patchId);
       }

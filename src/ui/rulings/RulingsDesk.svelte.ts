@@ -2,6 +2,7 @@ import { recordRuling, describeDecision } from '../../app/rulings/recordRuling.t
 import { reopenRuling } from '../../app/rulings/reopenRuling.ts';
 import { rulingsQueue, type RulingsQueue } from '../../app/rulings/rulingsQueue.ts';
 import { sendToThirdReader } from '../../app/rulings/sendToThirdReader.ts';
+import { openBlindPassOf } from '../../core/blind/index.ts';
 import type { Finding } from '../../core/checks/findings.ts';
 import { filterQueue, overridesEveryone, queueProgress, speciesPairs, type DisagreementKind, type QueueItem } from '../../core/rulings/index.ts';
 import { tagsOfPatch, type Ruling, type RulingDecision, type SiteState } from '../../core/site/index.ts';
@@ -65,6 +66,11 @@ export class RulingsDesk {
   get items(): QueueItem[] {
     const pair = this.pair ? (this.pair.split('|') as [string, string]) : undefined;
     return filterQueue(this.#queue.items, { kind: this.kind || undefined, interpreter: this.who || undefined, pair, status: this.status });
+  }
+
+  /** The ruler's own open blind pass, while there is one: the page stays shut. */
+  get blindPass(): string | null {
+    return openBlindPassOf(this.#raw, this.interpreter)?.id ?? null;
   }
 
   get roster() {

@@ -151,4 +151,12 @@ describe('recording and reopening rulings', () => {
     await recordRuling(site, { patchId: 'P2', decision: { kind: 'mixed' }, seen: null }, ruler());
     expect(queueProgress(rulingsQueue(site.state, 'cy').items)).toEqual({ settled: 1, open: 1, total: 2 });
   });
+
+  it('refuses a ruling from someone in an open blind pass', async () => {
+    const { site } = await threeDisagreements();
+    const pass = await sendToThirdReader(site, 'P1', 'eve', ruler());
+    await expect(recordRuling(site, { patchId: 'P2', decision: { kind: 'accept', passId: 'pass-ak' }, seen: null }, { interpreter: 'eve', time: at() }))
+      .rejects.toThrow(`eve is in blind pass ${pass.id}: rulings reveal every call`);
+    expect(site.state.rulings.size).toBe(0);
+  });
 });
