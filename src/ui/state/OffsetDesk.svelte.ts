@@ -46,7 +46,7 @@ export class OffsetDesk {
   viewExtent = $state.raw<Extent | null>(null);
   busy = $state(false);
 
-  #appliedRun = $state.raw<OffsetRun | null>(null);
+  #appliedRun = $state.raw<{ run: OffsetRun; shiftId: string } | null>(null);
   #options: OffsetDeskOptions;
   #runner: OffsetRunner;
   #abort: AbortController | null = null;
@@ -60,7 +60,13 @@ export class OffsetDesk {
     this.#runner = options.runner ?? new WorkerOffsetRunner();
     void options.store.ledger().then((events) => this.#take(events));
     this.#unsubscribe = options.store.subscribe((_state, event) => {
-      if (event.kind === 'patches.shifted') this.#take([event]);
+      if (event.kind !== 'patches.shifted') return;
+      this.#take([event]);
+      // Undo and redo come from the desk's keys: say what they did to the shift.
+      if (event.undoes !== undefined || event.redoes !== undefined) {
+        const moved = event.payload.direction === 'apply' ? 'moved by the shift again' : 'back where the field put them';
+        this.notice = `${event.undoes !== undefined ? 'Undone' : 'Redone'}: ${event.payload.outlines.length} patches ${moved}.`;
+      }
     });
   }
 
@@ -82,14 +88,16 @@ export class OffsetDesk {
     return this.progress !== null;
   }
 
-  /** True once the current estimate has been applied (so Apply would do it twice). */
+  /** True while the current estimate's shift is applied (so Apply would do it twice); false again after its undo or restore. */
   get runApplied(): boolean {
-    return this.run !== null && this.#appliedRun === this.run;
+    const applied = this.#appliedRun;
+    if (!applied || applied.run !== this.run) return false;
+    return this.shifts.find((s) => s.shiftId === applied.shiftId)?.direction === 'apply';
   }
   /** The outlines the map draws: the estimate's preview, else the newest shift of the site. */
   get outlines(): ShiftOutlines | null {
     const run = this.run;
-    if (run && !this.runApplied && run.estimate.reliable) {
+    if (run && this.#appliedRun?.run !== run && run.estimate.reliable) {
       const shift = { dx: run.estimate.dx!, dy: run.estimate.dy! };
       return { kind: 'preview', field: run.geometries, shifted: shiftPatches(run.geometries, shift) };
     }
@@ -145,8 +153,8 @@ export class OffsetDesk {
     const desk = this.#options.patches;
     if (desk.blindPass) return this.#say('Outlines stay as they were sent in a blind pass: end it to apply a shift.');
     await this.#work(async () => {
-      await applyShift(this.#options.store, run.estimate, run.patchIds, { interpreter: desk.interpreter, time: nowIso() });
-      this.#appliedRun = run;
+      const event = await applyShift(this.#options.store, run.estimate, run.patchIds, { interpreter: desk.interpreter, time: nowIso() });
+      if (event.kind === 'patches.shifted') this.#appliedRun = { run, shiftId: event.payload.shiftId };
       this.notice = `Moved ${run.patchIds.length} patches by the shift (Ctrl+Z undoes it).`;
     });
   }

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { canonicalJson } from '../../../src/core/ledger/canonicalJson.ts';
 import { defaultSettings, shiftPatches, SHIFT_METHOD, type ShiftRecord } from '../../../src/core/offset/index.ts';
 import { patchHistory } from '../../../src/core/export/patchHistory.ts';
+import { patchRecords } from '../../../src/core/export/patchRecords.ts';
 import {
   emptySiteState, inverseOf, readSiteFile, replay, siteFileOf, touchedRows, writeSiteFile, type LedgerEvent, type ShiftedOutline,
 } from '../../../src/core/site/index.ts';
@@ -47,8 +48,8 @@ describe('patches.shifted', () => {
     expect(moved).not.toBe(original);
     await l.undo();
     expect(geometries(l)).toBe(original);
-    expect(l.events.at(-1)!.kind).toBe('patches.shifted');
-    expect(l.events.at(-1)!.kind === 'patches.shifted' && l.events.at(-1)!.payload.direction).toBe('restore');
+    const undo = l.events.at(-1)!;
+    expect(undo.kind === 'patches.shifted' && undo.payload.direction).toBe('restore');
     await l.redo();
     expect(geometries(l)).toBe(moved);
   });
@@ -110,5 +111,15 @@ describe('patches.shifted', () => {
     expect(changes[1]).toMatchObject({ seq: undo.seq, undo: true });
     expect(changes[1].dx).toBeCloseTo(-0.37, 9);
     expect(patchHistory(l.events).changes.has('p1')).toBe(false);
+  });
+
+  it('goes out in each moved patch\'s exported transformations with its uncertainty and method', async () => {
+    const l = await buildSite();
+    const apply = await shifted(l, ['p0', 'p2']);
+    const { patches } = patchRecords(l.state, l.events, { selection: { kind: 'all-passes' } });
+    const p0 = patches.find((p) => p.id === 'p0')!;
+    const shift = p0.transformations.find((t) => t.kind === 'shift');
+    expect(shift).toMatchObject({ kind: 'shift', ledger_seq: apply.seq, undo: false, uncertainty_m: 0.05, method: expect.stringContaining('quadratic peak fit') });
+    expect(patches.find((p) => p.id === 'p1')!.transformations.some((t) => t.kind === 'shift')).toBe(false);
   });
 });
