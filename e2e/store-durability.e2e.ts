@@ -99,7 +99,7 @@ const small = join(work, 'small-disk');
 function mountSmallDisk(): boolean {
   mkdirSync(small, { recursive: true });
   try {
-    execFileSync('mount', ['-t', 'tmpfs', '-o', 'size=48m', 'tmpfs', small], { stdio: 'pipe' });
+    execFileSync('mount', ['-t', 'tmpfs', '-o', 'size=32m', 'tmpfs', small], { stdio: 'pipe' });
     return true;
   } catch (error) {
     console.warn(`full-disk check skipped: cannot mount a small tmpfs (${(error as Error).message.split('\n')[0]}); it needs root`);
