@@ -1,6 +1,7 @@
 import { verifyChain } from '../ledger/chain.ts';
 import { emptySiteState, replay, SiteRuleError, type LedgerEvent, type SiteState } from '../site/index.ts';
 import { ExportError } from './ExportError.ts';
+import { readSiteFile as readBackupFile, SITE_FILE_FORMAT as BACKUP_FORMAT, SiteFileError } from '../site/siteFile.ts';
 
 // The site file: a whole site as one JSON document, the hash-chained ledger with its
 // head. The current state is not stored beside it, because replaying the ledger gives it
@@ -37,6 +38,17 @@ export async function readSiteFile(text: string, fileName: string): Promise<Open
     doc = JSON.parse(text) as Partial<SiteFile>;
   } catch (error) {
     throw new ExportError(`is not a JSON document (${(error as Error).message})`, fileName);
+  }
+  // A backup saved by the app (the store's site file) carries the same ledger with the
+  // current state beside it; its own reader checks both, so the two layouts read alike.
+  if (doc && typeof doc === 'object' && (doc as { format?: unknown }).format === BACKUP_FORMAT) {
+    try {
+      const backup = await readBackupFile(fileName, text);
+      return { state: backup.state, events: backup.ledger };
+    } catch (error) {
+      if (error instanceof SiteFileError) throw new ExportError(error.problem, fileName);
+      throw error;
+    }
   }
   if (!doc || typeof doc !== 'object' || doc.kind !== SITE_FILE_KIND) {
     throw new ExportError(`is not a Fellfield site file (expected "kind": "${SITE_FILE_KIND}")`, fileName);
