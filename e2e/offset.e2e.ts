@@ -106,4 +106,24 @@ describe('the field shift on the desk', () => {
     await mapReady();
     await expect.poll(async () => (await patchPixels()).h, { timeout: 20_000 }).toBe(before.h);
   });
+
+  it('says plainly when the radius does not fit the scene, and a cancelled estimate leaves nothing behind', async () => {
+    const panel = page.locator('[data-testid="offset-panel"]');
+    const radius = panel.locator('input[aria-label="Search radius in metres"]');
+    const estimate = panel.locator('button', { hasText: /^Estimate for/ });
+    await radius.fill('5000');
+    await estimate.click();
+    await expect.poll(() => panel.locator('.problem').innerText(), { timeout: 20_000 }).toMatch(/^Search radius 5000 m: it must be above 0 and under half the scene's side \(\d+\.\d m\)\.$/);
+    expect(await page.locator('[data-testid="offset-result"]').count()).toBe(0);
+
+    // A wide search takes a while; cancel it as soon as it shows progress.
+    await radius.fill('8');
+    await estimate.click();
+    await panel.locator('button', { hasText: /^Cancel$/ }).click();
+    await expect.poll(() => panel.locator('[role="status"].progress').count()).toBe(0);
+    await page.waitForTimeout(1500);
+    expect(await page.locator('[data-testid="offset-result"]').count()).toBe(0);
+    expect(await panel.locator('.problem').allInnerTexts()).toEqual([]);
+    expect(await estimate.isEnabled()).toBe(true);
+  });
 });

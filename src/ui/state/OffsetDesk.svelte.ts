@@ -132,7 +132,8 @@ export class OffsetDesk {
         },
       });
     } catch (error) {
-      if ((error as Error).name !== 'AbortError') this.error = (error as Error).message;
+      // A cancelled read fails in the bridge's own words; once cancelled, no failure is news.
+      if (!abort.signal.aborted && (error as Error).name !== 'AbortError') this.error = (error as Error).message;
     } finally {
       if (this.#abort === abort) {
         this.#abort = null;
