@@ -81,6 +81,9 @@ describe('the field shift on the desk', () => {
     await mapReady();
     const before = await patchPixels();
     expect(before.ink).toBeGreaterThan(0);
+    // The preview: where the field put the polygon (dashed) and where the shift would put it.
+    expect(await page.locator('.offset-layer canvas').count()).toBeGreaterThan(0);
+    await screenshot(page, 'offset-preview');
     await page.locator('[data-testid="offset-apply"]').click();
     await expect.poll(direction, { timeout: 30_000 }).toBe('apply');
     await expect.poll(() => page.locator('[data-testid="offset-apply"]').innerText()).toBe('Applied');

@@ -22,6 +22,8 @@ export function appliedShifts(events: Iterable<LedgerEvent>, into: Map<string, A
   for (const e of events) {
     if (e.kind !== 'patches.shifted') continue;
     const { shiftId, direction, record, outlines } = e.payload;
+    // A late whole-ledger read must not take back a newer event already heard of.
+    if ((into.get(shiftId)?.seq ?? 0) > e.seq) continue;
     into.set(shiftId, { shiftId, record, direction, seq: e.seq, by: e.actor, time: e.time, outlines });
   }
   return into;

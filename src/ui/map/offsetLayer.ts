@@ -28,6 +28,9 @@ export function offsetLayer() {
   const layer = new VectorLayer({
     source,
     className: 'offset-layer',
+    // Over the stored patches (added later by the editing tools), so the dashed field
+    // outline shows where it lies under a patch not yet moved.
+    zIndex: 1,
     style: (feature) => (feature.get('position') === 'field' ? fieldStyle : shiftedStyle),
     updateWhileInteracting: false,
   });

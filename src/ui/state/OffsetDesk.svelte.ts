@@ -58,7 +58,6 @@ export class OffsetDesk {
   constructor(options: OffsetDeskOptions) {
     this.#options = options;
     this.#runner = options.runner ?? new WorkerOffsetRunner();
-    void options.store.ledger().then((events) => this.#take(events));
     this.#unsubscribe = options.store.subscribe((_state, event) => {
       if (event.kind !== 'patches.shifted') return;
       this.#take([event]);
@@ -107,6 +106,19 @@ export class OffsetDesk {
     const shifted = newest.outlines.map((o) => (newest.direction === 'apply' ? o.geometry : o.previous));
     return { kind: newest.direction === 'apply' ? 'applied' : 'restored', field, shifted };
   }
+
+  /**
+   * Reads the site's shifts from the ledger, once, when the tool is first opened: the
+   * whole ledger of a large site is not worth reading on every desk open.
+   */
+  loadShifts(): void {
+    if (this.#loading) return;
+    this.#loading = this.#options.store.ledger().then((events) => this.#take(events)).catch((error: Error) => {
+      this.#loading = null;
+      this.error = `The shifts of this site could not be read: ${error.message}`;
+    });
+  }
+  #loading: Promise<void> | null = null;
 
   setViewport(extent: number[]): void {
     this.viewExtent = [extent[0], extent[1], extent[2], extent[3]];

@@ -150,4 +150,17 @@ describe('estimateOffset', () => {
     const unreliable = { ...run.estimate, reliable: false, dx: null, dy: null, reasons: ['the peak does not stand out'] };
     await expect(applyShift(ledgerStore(l), unreliable, run.patchIds, { interpreter: 'ak', time: 't' })).rejects.toThrow(/no reliable shift to apply: the peak does not stand out/);
   });
+
+  it('keeps the newest word on each shift when an older ledger read arrives late', async () => {
+    const l = new MemoryLedger();
+    await l.add({ kind: 'site.created', payload: { site: { id: 's', name: 'Demo', epsg: site.truth.crs.epsg, createdAt: l.time() } } });
+    for (const p of patches.slice(0, 3)) await l.add({ kind: 'patch.added', payload: { patch: p, tags: [] } });
+    const store = ledgerStore(l);
+    await applyShift(store, run.estimate, patches.slice(0, 3).map((p) => p.id), { interpreter: 'ak', time: l.time() });
+    const stale = [...l.events];
+    await l.undo();
+    const heard = appliedShifts([l.events.at(-1)!]);
+    appliedShifts(stale, heard);
+    expect([...heard.values()].map((s) => s.direction)).toEqual(['restore']);
+  });
 });
