@@ -53,6 +53,7 @@ export const shortcuts: Shortcut[] = [
   { keys: 'Shift+R', action: 'reopen the ruling in force, with the reason written', where: 'rulings' },
   { keys: 'Shift+T', action: 'send the patch to a third reader (a blind pass of that patch)', where: 'rulings' },
   { keys: 'P N C S V D', action: 'imagery of the patch in hand: pan, natural, infrared, pan-sharpened, index, other date', where: 'rulings' },
+  { keys: 'Ctrl+S', action: 'save the whole site (not the imagery) as one backup file', where: 'everywhere' },
   { keys: '?', action: 'open this page of keys and cautions', where: 'everywhere' },
   { keys: 'Esc', action: 'back to the desk from another page', where: 'everywhere' },
 ];
