@@ -94,7 +94,9 @@ export class OffsetDesk {
     return this.shifts.find((s) => s.shiftId === applied.shiftId)?.direction === 'apply';
   }
   /** The outlines the map draws: the estimate's preview, else the newest shift of the site. */
-  get outlines(): ShiftOutlines | null {
+  readonly outlines: ShiftOutlines | null = $derived.by(() => this.#outlines());
+
+  #outlines(): ShiftOutlines | null {
     const run = this.run;
     if (run && this.#appliedRun?.run !== run && run.estimate.reliable) {
       const shift = { dx: run.estimate.dx!, dy: run.estimate.dy! };
