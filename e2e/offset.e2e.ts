@@ -51,6 +51,7 @@ describe('the field shift on the desk', () => {
     await panel.locator('summary').first().click();
     await expect.poll(() => panel.locator('select').first().inputValue()).toMatch(/^import:/);
     const before = await patchPixels();
+    await panel.getByLabel(/also a shift per area/).check();
     await panel.locator('button', { hasText: /^Estimate for 225 patches$/ }).click();
     const result = page.locator('[data-testid="offset-result"]');
     await result.waitFor({ timeout: 150_000 });
@@ -65,8 +66,13 @@ describe('the field shift on the desk', () => {
     await expect.poll(() => result.innerText()).toMatch(/m west, 1\.5\d m north/);
     expect(await page.locator('[data-testid="offset-applied"]').count()).toBe(0);
     expect(await patchPixels()).toEqual(before);
+    // The shift per area: four cells, each judged against the common shift.
+    expect(await page.locator('[data-testid="offset-areas"]').innerText()).toMatch(/^(One shift fits every area|One shift does not fit every area|Too few areas)/);
+    expect(await panel.locator('ul.areas li').count()).toBe(4);
     await page.locator('[data-testid="offset-heat"]').scrollIntoViewIfNeeded();
     await screenshot(page, 'offset-estimate');
+    await page.locator('[data-testid="offset-areas"]').scrollIntoViewIfNeeded();
+    await screenshot(page, 'offset-areas');
   });
 
   it('applies it: the stored outlines move, drawn beside the field outlines', async () => {

@@ -1,6 +1,6 @@
 import { extentOfRings } from '../../core/geometry/measure.ts';
 import type { Extent } from '../../core/geometry/types.ts';
-import { defaultSettings, type OffsetEstimate, type SignalKind } from '../../core/offset/index.ts';
+import { defaultSettings, type AreaShifts, type OffsetEstimate, type SignalKind } from '../../core/offset/index.ts';
 import type { Patch } from '../../core/site/index.ts';
 import type { SceneView } from '../site.ts';
 import { OffsetInputError, readSignal } from './offsetSignal.ts';
@@ -17,6 +17,8 @@ export interface EstimateRequest {
   /** Largest shift tried, metres. */
   radius: number;
   signal?: SignalKind;
+  /** Also a shift per cell of an N x N grid (0 or absent: none). */
+  areasAcross?: number;
   runner: OffsetRunner;
   onProgress?: (progress: EstimateProgress) => void;
   abort?: AbortSignal;
@@ -32,6 +34,8 @@ export interface EstimateProgress {
 /** An estimate, with what it was made of, ready to show or to apply. */
 export interface OffsetRun {
   estimate: OffsetEstimate;
+  /** the shift per area, when asked for */
+  areas: AreaShifts | null;
   /** the patches estimated, in the estimate's order */
   patchIds: string[];
   /** geometries as estimated: the before outlines of a preview */
@@ -74,12 +78,15 @@ export async function estimateOffset(request: EstimateRequest): Promise<OffsetRu
   const tell = request.onProgress ?? (() => {});
   tell({ stage: 'reading', share: 0, text: `Reading ${summary.fileName} around ${patches.length} patches` });
   const grid = await readSignal(raster, kind, [all[0] - margin, all[1] - margin, all[2] + margin, all[3] + margin], abort);
-  const estimate = await runner.run(
-    { patches: patches.map((p) => ({ id: p.id, rings: p.geometry })), grid, settings },
+  const areasAcross = request.areasAcross ?? 0;
+  const { estimate, areas } = await runner.run(
+    { patches: patches.map((p) => ({ id: p.id, rings: p.geometry })), grid, settings, areasAcross },
     (p) => tell(p.stage === 'templates'
       ? { stage: 'templates', share: 0.15 + 0.25 * (p.done / p.total), text: `Sampling ${p.done} of ${p.total} patches` }
-      : { stage: 'search', share: p.done ? 1 : 0.4, text: 'Searching shifts and bootstrapping' }),
+      : p.stage === 'search'
+        ? { stage: 'search', share: p.done ? (areasAcross ? 0.7 : 1) : 0.4, text: 'Searching shifts and bootstrapping' }
+        : { stage: 'areas', share: p.done ? 1 : 0.7, text: `Estimating a shift in each of ${areasAcross} x ${areasAcross} areas` }),
     abort,
   );
-  return { estimate, patchIds: patches.map((p) => p.id), geometries: patches.map((p) => p.geometry), panPixel, signalFile: summary.fileName };
+  return { estimate, areas, patchIds: patches.map((p) => p.id), geometries: patches.map((p) => p.geometry), panPixel, signalFile: summary.fileName };
 }

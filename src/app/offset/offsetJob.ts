@@ -1,4 +1,4 @@
-import { estimateFromTemplates, type OffsetEstimate, type OffsetPatch, type OffsetSettings, type SignalGrid } from '../../core/offset/index.ts';
+import { estimateByArea, estimateFromTemplates, type AreaShifts, type OffsetEstimate, type OffsetPatch, type OffsetSettings, type SignalGrid } from '../../core/offset/index.ts';
 import { patchTemplate, type PatchTemplate } from '../../core/offset/patchTemplate.ts';
 import { hashUnit } from '../../core/random.ts';
 
@@ -9,17 +9,25 @@ export interface OffsetJob {
   patches: OffsetPatch[];
   grid: SignalGrid;
   settings: OffsetSettings;
+  /** Also a shift per cell of an N x N grid over the polygons (0 or absent: none). */
+  areasAcross?: number;
+}
+
+export interface OffsetJobResult {
+  estimate: OffsetEstimate;
+  /** null unless asked for */
+  areas: AreaShifts | null;
 }
 
 export interface OffsetProgress {
-  stage: 'templates' | 'search';
+  stage: 'templates' | 'search' | 'areas';
   done: number;
   total: number;
 }
 
 const CHUNK = 50;
 
-export function runOffsetJob(job: OffsetJob, onProgress: (p: OffsetProgress) => void = () => {}): OffsetEstimate {
+export function runOffsetJob(job: OffsetJob, onProgress: (p: OffsetProgress) => void = () => {}): OffsetJobResult {
   const { patches, grid, settings } = job;
   if (patches.length < 2) throw new RangeError(`needs at least two polygons to tell a common shift from their own errors, got ${patches.length}`);
   const templates: PatchTemplate[] = [];
@@ -32,5 +40,11 @@ export function runOffsetJob(job: OffsetJob, onProgress: (p: OffsetProgress) => 
   onProgress({ stage: 'search', done: 0, total: 1 });
   const estimate = estimateFromTemplates(templates, grid, settings);
   onProgress({ stage: 'search', done: 1, total: 1 });
-  return estimate;
+  let areas: AreaShifts | null = null;
+  if (job.areasAcross) {
+    onProgress({ stage: 'areas', done: 0, total: 1 });
+    areas = estimateByArea(patches, grid, settings, estimate, job.areasAcross);
+    onProgress({ stage: 'areas', done: 1, total: 1 });
+  }
+  return { estimate, areas };
 }

@@ -1,12 +1,11 @@
-import type { OffsetEstimate } from '../../core/offset/index.ts';
-import { runOffsetJob, type OffsetJob, type OffsetProgress } from './offsetJob.ts';
+import { runOffsetJob, type OffsetJob, type OffsetJobResult, type OffsetProgress } from './offsetJob.ts';
 import type { OffsetWorkerReply } from './offset.worker.ts';
 
 // Who runs the search: a worker in the app (the page stays responsive), the calling
 // thread in tests and scripts. Both run runOffsetJob.
 
 export interface OffsetRunner {
-  run(job: OffsetJob, onProgress: (p: OffsetProgress) => void, signal?: AbortSignal): Promise<OffsetEstimate>;
+  run(job: OffsetJob, onProgress: (p: OffsetProgress) => void, signal?: AbortSignal): Promise<OffsetJobResult>;
   dispose(): void;
 }
 
@@ -14,7 +13,7 @@ const abortError = () => new DOMException('the estimate was cancelled', 'AbortEr
 
 /** Runs in the calling thread. */
 export class InlineOffsetRunner implements OffsetRunner {
-  async run(job: OffsetJob, onProgress: (p: OffsetProgress) => void, signal?: AbortSignal): Promise<OffsetEstimate> {
+  async run(job: OffsetJob, onProgress: (p: OffsetProgress) => void, signal?: AbortSignal): Promise<OffsetJobResult> {
     if (signal?.aborted) throw abortError();
     return runOffsetJob(job, onProgress);
   }
@@ -30,11 +29,11 @@ export class WorkerOffsetRunner implements OffsetRunner {
   #worker: Worker | null = null;
   #nextId = 1;
 
-  run(job: OffsetJob, onProgress: (p: OffsetProgress) => void, signal?: AbortSignal): Promise<OffsetEstimate> {
+  run(job: OffsetJob, onProgress: (p: OffsetProgress) => void, signal?: AbortSignal): Promise<OffsetJobResult> {
     if (signal?.aborted) return Promise.reject(abortError());
     const worker = (this.#worker ??= new Worker(new URL('./offset.worker.ts', import.meta.url), { type: 'module', name: 'fellfield-offset' }));
     const id = this.#nextId++;
-    return new Promise<OffsetEstimate>((resolve, reject) => {
+    return new Promise<OffsetJobResult>((resolve, reject) => {
       const stop = () => {
         worker.removeEventListener('message', onMessage);
         worker.removeEventListener('error', onError);
@@ -45,7 +44,7 @@ export class WorkerOffsetRunner implements OffsetRunner {
         if (reply.id !== id) return;
         if (reply.kind === 'progress') return onProgress(reply.progress);
         stop();
-        if (reply.kind === 'done') resolve(reply.estimate);
+        if (reply.kind === 'done') resolve(reply.result);
         else reject(new Error(reply.message));
       };
       const onError = (event: ErrorEvent) => {

@@ -37,6 +37,8 @@ export class OffsetDesk {
   setKey = $state('');
   radius = $state(3);
   signal = $state<SignalKind>('ndvi');
+  /** also a shift per area (2 x 2 cells), to see whether one shift fits the whole set */
+  byArea = $state(false);
   progress = $state.raw<EstimateProgress | null>(null);
   run = $state.raw<OffsetRun | null>(null);
   error = $state<string | null>(null);
@@ -140,7 +142,7 @@ export class OffsetDesk {
     try {
       const patches = patchesOfSet(this.#options.patches.state, chosen.choice);
       this.run = await estimateOffset({
-        patches, scene, radius: Number(this.radius), signal: this.signal, runner: this.#runner, abort: abort.signal,
+        patches, scene, radius: Number(this.radius), signal: this.signal, areasAcross: this.byArea ? 2 : 0, runner: this.#runner, abort: abort.signal,
         onProgress: (p) => {
           if (this.#abort === abort) this.progress = p;
         },

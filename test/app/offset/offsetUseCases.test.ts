@@ -10,7 +10,7 @@ import type { SceneView } from '../../../src/app/site.ts';
 import { readLabelFile } from '../../../src/core/geojson/labelFile.ts';
 import { extentOfRings } from '../../../src/core/geometry/measure.ts';
 import { canonicalJson } from '../../../src/core/ledger/canonicalJson.ts';
-import { defaultSettings, estimateShift, sceneSignal } from '../../../src/core/offset/index.ts';
+import { defaultSettings, estimateByArea, estimateShift, sceneSignal } from '../../../src/core/offset/index.ts';
 import { emptySiteState, replay, type Patch } from '../../../src/core/site/index.ts';
 import { inspectTiff } from '../../../src/core/tiff/inspectTiff.ts';
 import type { SiteStore } from '../../../src/store/SiteStore.ts';
@@ -63,7 +63,7 @@ describe('estimateOffset', () => {
   const progress: EstimateProgress[] = [];
 
   beforeAll(async () => {
-    run = await estimateOffset({ patches, scene, radius: 3, runner: new InlineOffsetRunner(), onProgress: (p) => progress.push(p) });
+    run = await estimateOffset({ patches, scene, radius: 3, areasAcross: 2, runner: new InlineOffsetRunner(), onProgress: (p) => progress.push(p) });
   });
 
   it('recovers the demo truth within a quarter of a panchromatic pixel, inside its uncertainty', () => {
@@ -91,6 +91,9 @@ describe('estimateOffset', () => {
     expect(run.estimate.dy).toBe(cli.dy);
     expect(run.estimate.uncertainty).toBe(cli.uncertainty);
     expect(run.estimate.outliers).toEqual(cli.outliers);
+    // The per-area shifts too (the path of fellfield offset --areas 2).
+    expect(run.areas).toEqual(estimateByArea(patches.map((p) => ({ id: p.id, rings: p.geometry })), grid, settings, cli, 2));
+    expect(run.areas!.cells).toHaveLength(4);
   });
 
   it('refuses one patch, patches off the scene and a radius as large as the scene, naming the file', () => {
