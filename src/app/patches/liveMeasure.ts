@@ -1,5 +1,5 @@
 import { multiPolygonArea } from '../../core/geometry/measure.ts';
-import type { RasterGrid } from '../../core/geometry/rasterGrid.ts';
+import { gridOfSummary, type RasterGrid } from '../../core/geometry/rasterGrid.ts';
 import type { MultiPolygonRings } from '../../core/geometry/types.ts';
 import { patchPixels } from '../../core/pixels/patchPixels.ts';
 import type { SceneView } from '../site.ts';
@@ -21,14 +21,7 @@ export interface OutlineMeasure {
 export function multispectralGrid(scene: SceneView | undefined): RasterGrid | null {
   const summary = scene?.ms?.raster.summary;
   if (!summary || !summary.georeferenced) return null;
-  return {
-    originX: summary.origin[0],
-    originY: summary.origin[1],
-    pixelWidth: summary.pixelSize[0],
-    pixelHeight: summary.pixelSize[1],
-    width: summary.width,
-    height: summary.height,
-  };
+  return gridOfSummary(summary);
 }
 
 export function measureOutline(parts: MultiPolygonRings, grid: RasterGrid | null): OutlineMeasure {

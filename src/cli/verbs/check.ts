@@ -3,7 +3,7 @@ import { FINDING_KINDS, type Finding, type FindingKind } from '../../core/checks
 import { runChecks } from '../../core/checks/runChecks.ts';
 import type { CheckSettings, SceneGrids } from '../../core/checks/settings.ts';
 import { LabelFileError, readLabelFile } from '../../core/geojson/labelFile.ts';
-import type { RasterGrid } from '../../core/geometry/rasterGrid.ts';
+import { gridOfSummary, type RasterGrid } from '../../core/geometry/rasterGrid.ts';
 import { InputError } from '../errors.ts';
 import { inspectInWorker } from '../inspectInWorker.ts';
 import { parseVerbArgs, type Verb } from '../verb.ts';
@@ -76,15 +76,7 @@ async function rasterGrid(path: string): Promise<RasterGrid> {
   const { summary } = await inspectInWorker(path, { check: 'none' });
   if (!summary.georeferenced) throw new InputError(`${path}: the GeoTIFF has no georeference, so it cannot place the patches`);
   if (summary.epsg === null) throw new InputError(`${path}: the GeoTIFF names no EPSG code for its CRS`);
-  return {
-    originX: summary.origin[0],
-    originY: summary.origin[1],
-    pixelWidth: summary.pixelSize[0],
-    pixelHeight: summary.pixelSize[1],
-    width: summary.width,
-    height: summary.height,
-    epsg: summary.epsg,
-  };
+  return gridOfSummary(summary);
 }
 
 async function readScene(value: string | undefined): Promise<{ scene: SceneGrids; epsg?: number }> {

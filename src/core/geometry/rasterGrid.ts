@@ -1,4 +1,5 @@
 import type { Extent } from './types.ts';
+import type { TiffSummary } from '../tiff/inspectTiff.ts';
 
 /**
  * A north-up raster grid in a projected CRS, as a GeoTIFF header gives it:
@@ -35,4 +36,17 @@ export function gridProblem(grid: RasterGrid): string | null {
   if (grid.pixelWidth <= 0 || grid.pixelHeight <= 0) return 'the raster grid has a pixel size that is not positive';
   if (grid.width < 1 || grid.height < 1) return 'the raster grid has no pixels';
   return null;
+}
+
+/** The grid a GeoTIFF header describes (its full-resolution level). */
+export function gridOfSummary(summary: Pick<TiffSummary, 'origin' | 'pixelSize' | 'width' | 'height' | 'epsg'>): RasterGrid {
+  return {
+    originX: summary.origin[0],
+    originY: summary.origin[1],
+    pixelWidth: summary.pixelSize[0],
+    pixelHeight: summary.pixelSize[1],
+    width: summary.width,
+    height: summary.height,
+    ...(summary.epsg !== null ? { epsg: summary.epsg } : {}),
+  };
 }
