@@ -165,6 +165,29 @@ describe('drawing and tagging a patch by keys', () => {
   });
 });
 
+describe('picking a patch from far away', () => {
+  it('takes a patch in hand by a click at a zoom where the patches are one painted image', async () => {
+    const { page } = session!;
+    await page.keyboard.press('g');
+    await page.keyboard.type('F012');
+    await page.keyboard.press('Enter');
+    await expect.poll(() => page.locator('[data-testid="patch-in-hand"] .id b').textContent()).toBe('F012');
+    // The jump centred F012; zoom out (about the centre) until the outlines give way to the painted view.
+    for (let i = 0; i < 5; i++) {
+      await page.click('.ol-zoom-out');
+      await page.waitForTimeout(300);
+    }
+    await mapReady(page);
+    const box = (await page.locator('[data-testid="map"]').boundingBox())!;
+    // A click on bare ground clears the hand; a click on the centre picks F012 again.
+    await page.mouse.click(box.x + 12, box.y + box.height - 12);
+    await expect.poll(() => page.locator('[data-testid="patch-in-hand"] .id b').count()).toBe(0);
+    await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+    await expect.poll(() => page.locator('[data-testid="patch-in-hand"] .id b').textContent()).toBe('F012');
+    await screenshot(page, 'patches-far-pick');
+  });
+});
+
 describe('the start screen after the demo was stored', () => {
   it('lists the demo among the sites on this machine', async () => {
     const { page } = session!;
