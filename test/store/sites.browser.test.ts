@@ -23,7 +23,7 @@ import { square } from '../core/site/scenario.ts';
 let clock = Date.UTC(2026, 7, 1, 8);
 const now = () => new Date((clock += 1000)).toISOString();
 
-function bytes(size: number, seed: number): Uint8Array {
+function bytes(size: number, seed: number): Uint8Array<ArrayBuffer> {
   const out = new Uint8Array(size);
   for (let i = 0; i < size; i++) out[i] = (i * 31 + seed * 7 + (i >> 9)) & 0xff;
   return out;
