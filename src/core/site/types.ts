@@ -109,6 +109,20 @@ export interface Pass {
    * pass starts; absent, the delineation is compared within the extent of its outlines.
    */
   area?: MultiPolygonRings;
+  /** when the pass was held and taken up again, oldest first; absent until its first pause */
+  pauses?: PausePeriod[];
+}
+
+/** A blind pass held (no calls taken) from `pausedAt` until `resumedAt`, null while held. */
+export interface PausePeriod {
+  pausedAt: string;
+  resumedAt: string | null;
+}
+
+/** Whether a pass is held right now. */
+export function isPaused(pass: Pass): boolean {
+  const last = pass.pauses?.at(-1);
+  return last !== undefined && last.resumedAt === null;
 }
 
 export type RulingDecision =
