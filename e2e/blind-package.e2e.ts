@@ -114,6 +114,9 @@ describe('a blind package between two machines', () => {
     }
     await expect.poll(() => page.locator('[data-testid="save-status"]').textContent()).toContain('All saved');
     expect(await page.locator('[data-testid="blind-progress"]').textContent()).toBe(`${SAMPLE} of ${SAMPLE} called`);
+    // Nothing on B's screen names who sent the outlines or how they were first called.
+    const text = await page.locator('body').innerText();
+    for (const leak of ['Interpreter A', 'field crew', 'field polygon, feature']) expect(text).not.toContain(leak);
     await screenshot(page, 'package-called');
     answersPath = await download(page, () => page.locator('[data-testid="blind-mine"] button:has-text("Save my answers")').click());
     expect(answersPath).toMatch(new RegExp(`${PASS}\\.answers\\.json$`));

@@ -93,7 +93,7 @@ describe('a blind pass on the demo', () => {
     await mapReady(page);
 
     const text = await page.locator('body').innerText();
-    for (const leak of [NOTE, 'field crew', 'Interpreter A', 'Field polygons', 'GPS survey']) expect(text).not.toContain(leak);
+    for (const leak of [NOTE, 'field crew', 'Interpreter A', 'Field polygons', 'GPS survey', 'field polygon, feature']) expect(text).not.toContain(leak);
     // Every outline in one neutral colour: no saturated pixel of any hue on the patch layer.
     const stats = await layerCanvasStats(page, '.stored-patches-layer canvas');
     expect(stats.opaqueShare).toBeGreaterThan(0.0002);
