@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { openApp, screenshot, type Session } from './browser.ts';
+import { openApp, screenshot, type Session, patchCount } from './browser.ts';
 
 // A blind pass carried between two machines, each a Chromium profile of its own with
 // real IndexedDB: machine A starts a pass on the demo and saves its package; machine B
@@ -33,7 +33,6 @@ async function mapReady(page: Page) {
   await page.waitForTimeout(150);
   await page.waitForSelector('[data-testid="map"][data-ready="true"]', { timeout: 90_000 });
 }
-const patchCount = async (page: Page) => Number((await page.locator('.patch-panel > p.detail').last().textContent())?.match(/(\d+) patches/)?.[1]);
 const inHand = (page: Page) => page.locator('[data-testid="patch-in-hand"] .id b').textContent();
 /** Saving goes to a download in these profiles (no save dialog), caught and kept here. */
 async function noSaveDialog(page: Page) {

@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { openApp, screenshot, type Session } from './browser.ts';
+import { openApp, screenshot, type Session, patchCount } from './browser.ts';
 import { layerCanvasStats } from './canvasStats.ts';
 
 // A blind pass on the demo, end to end in Chromium with real IndexedDB: the desk's
@@ -30,7 +30,6 @@ async function mapReady(page: Page) {
 
 const inHand = (page: Page) => page.locator('[data-testid="patch-in-hand"] .id b').textContent();
 const saved = (page: Page) => page.locator('[data-testid="save-status"]').textContent();
-const patchCount = async (page: Page) => Number((await page.locator('.patch-panel > p.detail').last().textContent())?.match(/(\d+) patches/)?.[1]);
 const blur = (page: Page) => page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
 
 const NOTE = 'NOTE-7Q: crown half in shadow';

@@ -1,6 +1,6 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { openApp, screenshot, type Session } from './browser.ts';
+import { openApp, screenshot, type Session, patchCount } from './browser.ts';
 
 // An independent delineation with its area drawn on the map before it starts: the area
 // is no patch, it is kept with the pass, the second interpreter draws inside it, and the
@@ -15,7 +15,6 @@ async function mapReady(page: Page) {
   await page.waitForTimeout(150);
   await page.waitForSelector('[data-testid="map"][data-ready="true"]', { timeout: 90_000 });
 }
-const patchCount = async (page: Page) => Number((await page.locator('.patch-panel > p.detail').last().textContent())?.match(/(\d+) patches/)?.[1]);
 async function clickOutline(page: Page, corners: [number, number][]) {
   for (const [x, y] of [...corners, corners[0]]) {
     await page.mouse.click(x, y);

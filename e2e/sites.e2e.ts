@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { baseUrl, openApp, screenshot, type Session } from './browser.ts';
+import { baseUrl, openApp, screenshot, type Session, patchCount as patchCountOf } from './browser.ts';
 import { layerCanvasStats } from './canvasStats.ts';
 import { writeGeoTiff } from '../src/core/tiff/writeGeoTiff.ts';
 
@@ -43,7 +43,7 @@ async function mapReady() {
   await page.waitForSelector('[data-testid="map"][data-ready="true"]', { timeout: 90_000 });
 }
 const saved = () => page.locator('[data-testid="save-status"]').textContent();
-const patchCount = async () => Number((await page.locator('.patch-panel > p.detail').last().textContent())?.match(/(\d+) patches/)?.[1]);
+const patchCount = () => patchCountOf(page);
 
 async function pick(button: string, files: string[]) {
   const chooser = page.waitForEvent('filechooser');
