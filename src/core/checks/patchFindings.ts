@@ -3,8 +3,11 @@ import { fromJsts, jstsPolygon } from '../geometry/jstsBridge.ts';
 import { multiPolygonArea } from '../geometry/measure.ts';
 import { countPurePixels } from '../geometry/purePixels.ts';
 import { gridExtent, type RasterGrid } from '../geometry/rasterGrid.ts';
-import type { Extent, MultiPolygonRings } from '../geometry/types.ts';
+import { singleRing } from '../geometry/exactOverlap.ts';
+import { ringOverlay } from '../geometry/ringOverlay.ts';
+import type { Extent, MultiPolygonRings, Ring } from '../geometry/types.ts';
 import type { Finding } from './findings.ts';
+import { middlePixelIsPure } from './pixelScreen.ts';
 import { jstsOf, type PreparedPatch } from './preparedPatch.ts';
 import type { CheckSettings, SceneGrids } from './settings.ts';
 
@@ -14,18 +17,13 @@ const round = (value: number, digits = 3) => Math.round(value * 10 ** digits) / 
 const percent = (share: number) => `${Math.round(share * 1000) / 10} %`;
 
 export function patchFindings(patch: PreparedPatch, settings: CheckSettings, scene: SceneGrids): Finding[] {
-  const out: Finding[] = [];
-  const invalid = invalidFinding(patch);
-  if (invalid) out.push(invalid);
-  const mixed = mixedTagFinding(patch, settings);
-  if (mixed) out.push(mixed);
-  if (patch.shape) {
-    const small = undersizedFinding(patch, settings, scene);
-    if (small) out.push(small);
-    const off = offImageFinding(patch, settings, scene);
-    if (off) out.push(off);
-  }
-  return out;
+  const found = [
+    invalidFinding(patch),
+    mixedTagFinding(patch, settings),
+    patch.shape ? undersizedFinding(patch, settings, scene) : null,
+    patch.shape ? offImageFinding(patch, settings, scene) : null,
+  ];
+  return found[0] || found[1] || found[2] || found[3] ? found.filter((f) => f !== null) : [];
 }
 
 function invalidFinding(patch: PreparedPatch): Finding | null {
@@ -58,10 +56,21 @@ function invalidFinding(patch: PreparedPatch): Finding | null {
   };
 }
 
+const mixedSets = new WeakMap<CheckSettings, Set<string>>();
+
+/** The "mixed" codes in lower case, made once per settings object. */
+function mixedCodeSet(settings: CheckSettings): Set<string> {
+  let set = mixedSets.get(settings);
+  if (!set) mixedSets.set(settings, (set = new Set(settings.mixedCodes.map((c) => c.toLowerCase()))));
+  return set;
+}
+
 function mixedTagFinding(patch: PreparedPatch, settings: CheckSettings): Finding | null {
   const { input } = patch;
+  const mixedCodes = mixedCodeSet(settings);
+  // Most patches carry one call that is not "mixed": nothing to build.
+  if (!input.tags?.length && !mixedCodes.has(input.species.trim().toLowerCase())) return null;
   const calls = [input.species, ...(input.tags ?? []).map((t) => t.species)].map((s) => s.trim());
-  const mixedCodes = new Set(settings.mixedCodes.map((c) => c.toLowerCase()));
   const taggedMixed = calls.some((c) => mixedCodes.has(c.toLowerCase()));
   const distinct = [...new Set(calls)].sort();
   if (!taggedMixed && distinct.length < 2) return null;
@@ -85,18 +94,22 @@ function undersizedFinding(patch: PreparedPatch, settings: CheckSettings, scene:
   const msArea = settings.msPixelSize * settings.msPixelSize;
   const minArea = settings.minAreaInMsPixels * msArea;
   let why: string | null = null;
-  const details: Record<string, number> = { areaM2: round(area), minAreaM2: round(minArea) };
+  let pure: number | null = null;
   if (area < minArea) {
     why = `covers ${round(area, 2)} m², under ${settings.minAreaInMsPixels} multispectral pixels (${round(minArea, 2)} m²)`;
-  } else if (scene.ms && settings.minPurePixels > 0 && overlapsGrid(patch, scene.ms)) {
-    const pure = countPurePixels(patch.shape!, scene.ms, settings.minPurePixels);
-    details.purePixels = pure;
-    details.minPurePixels = settings.minPurePixels;
+  } else if (scene.ms && settings.minPurePixels > 0 && overlapsGrid(patch, scene.ms)
+    && !(settings.minPurePixels === 1 && middlePixelIsPure(patch.shape!, scene.ms))) {
+    pure = countPurePixels(patch.shape!, scene.ms, settings.minPurePixels);
     if (pure < settings.minPurePixels) {
       why = `holds ${pure} pure multispectral pixel(s), fewer than ${settings.minPurePixels}`;
     }
   }
   if (!why) return null;
+  const details: Record<string, number> = { areaM2: round(area), minAreaM2: round(minArea) };
+  if (pure !== null) {
+    details.purePixels = pure;
+    details.minPurePixels = settings.minPurePixels;
+  }
   return {
     kind: 'undersized',
     patches: [input.id],
@@ -109,15 +122,24 @@ function undersizedFinding(patch: PreparedPatch, settings: CheckSettings, scene:
   };
 }
 
+const gridExtents = new WeakMap<RasterGrid, Extent>();
+
 /** Whether the patch's box meets the grid at all: off the grid, off-image says it all. */
 function overlapsGrid(patch: PreparedPatch, grid: RasterGrid): boolean {
-  const g = gridExtent(grid);
+  const g = gridExtents.get(grid) ?? gridExtents.set(grid, gridExtent(grid)).get(grid)!;
   const e = patch.extent!;
   return e[0] < g[2] && e[2] > g[0] && e[1] < g[3] && e[3] > g[1];
 }
 
 /** The rectangle every given raster covers (their intersection), or null with no scene. */
 export function sceneExtent(scene: SceneGrids): Extent | null {
+  if (!sceneExtents.has(scene)) sceneExtents.set(scene, extentOfScene(scene));
+  return sceneExtents.get(scene)!;
+}
+
+const sceneExtents = new WeakMap<SceneGrids, Extent | null>();
+
+function extentOfScene(scene: SceneGrids): Extent | null {
   const extents = [scene.pan, scene.ms].filter((g) => g !== undefined).map((g) => gridExtent(g));
   if (extents.length === 0) return null;
   return extents.reduce((a, b) => [Math.max(a[0], b[0]), Math.max(a[1], b[1]), Math.min(a[2], b[2]), Math.min(a[3], b[3])]);
@@ -133,8 +155,10 @@ function offImageFinding(patch: PreparedPatch, settings: CheckSettings, scene: S
   let outside: MultiPolygonRings = patch.shape!;
   if (!disjoint) {
     const [x0, y0, x1, y1] = bounds;
-    const rectangle = jstsPolygon([[[x0, y0], [x1, y0], [x1, y1], [x0, y1], [x0, y0]]]);
-    outside = fromJsts(OverlayOp.difference(jstsOf(patch), rectangle));
+    const rectangle: Ring = [[x0, y0], [x1, y0], [x1, y1], [x0, y1], [x0, y0]];
+    const ring = singleRing(patch.shape!);
+    outside = (ring && ringOverlay(ring, rectangle, 'difference'))
+      ?? fromJsts(OverlayOp.difference(jstsOf(patch), jstsPolygon([rectangle])));
   }
   const outsideArea = disjoint ? area : multiPolygonArea(outside);
   if (!disjoint && outsideArea <= settings.sliverAreaM2) return null;
