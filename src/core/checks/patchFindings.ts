@@ -7,6 +7,7 @@ import { singleRing } from '../geometry/exactOverlap.ts';
 import { ringOverlay } from '../geometry/ringOverlay.ts';
 import type { Extent, MultiPolygonRings, Ring } from '../geometry/types.ts';
 import type { Finding } from './findings.ts';
+import type { NoDataCover, NoDataMask } from './noDataMask.ts';
 import { middlePixelIsPure } from './pixelScreen.ts';
 import { jstsOf, type PreparedPatch } from './preparedPatch.ts';
 import type { CheckSettings, SceneGrids } from './settings.ts';
@@ -150,7 +151,7 @@ function offImageFinding(patch: PreparedPatch, settings: CheckSettings, scene: S
   const e = patch.extent;
   if (!bounds || !e) return null;
   const { input, area } = patch;
-  if (e[0] >= bounds[0] && e[1] >= bounds[1] && e[2] <= bounds[2] && e[3] <= bounds[3]) return null;
+  if (e[0] >= bounds[0] && e[1] >= bounds[1] && e[2] <= bounds[2] && e[3] <= bounds[3]) return noDataFinding(patch, settings, scene);
   const disjoint = e[0] >= bounds[2] || e[2] <= bounds[0] || e[1] >= bounds[3] || e[3] <= bounds[1];
   let outside: MultiPolygonRings = patch.shape!;
   if (!disjoint) {
@@ -176,5 +177,34 @@ function offImageFinding(patch: PreparedPatch, settings: CheckSettings, scene: S
     fix: disjoint
       ? { action: 'move-inside', target: input.id, text: `check the CRS of patch ${input.id} or delete it: the scene does not show it` }
       : { action: 'move-inside', target: input.id, text: `clip patch ${input.id} to the scene edge` },
+  };
+}
+
+/** A patch inside the scene's edge that lies over no-data pixels, in part or whole. */
+function noDataFinding(patch: PreparedPatch, settings: CheckSettings, scene: SceneGrids): Finding | null {
+  if (!scene.noData?.length) return null;
+  const { input, area } = patch;
+  let worst: { mask: NoDataMask; cover: NoDataCover } | null = null;
+  for (const mask of scene.noData) {
+    const cover = mask.cover(patch.shape!, patch.extent!, area);
+    if (cover && (!worst || cover.areaM2 > worst.cover.areaM2)) worst = { mask, cover };
+  }
+  if (!worst || worst.cover.areaM2 <= settings.sliverAreaM2) return null;
+  const { mask, cover } = worst;
+  const wholly = cover.share >= 1 - 1e-9;
+  return {
+    kind: 'off-image',
+    patches: [input.id],
+    severity: wholly || cover.share > 0.5 ? 'error' : 'warning',
+    message: wholly
+      ? `patch ${input.id} lies wholly over no-data pixels of ${mask.fileName}`
+      : `patch ${input.id} lies partly over no-data pixels of ${mask.fileName}: ${round(cover.areaM2, 2)} m² (${percent(cover.share)})`,
+    area_m2: round(cover.areaM2),
+    shares: [round(cover.share, 4)],
+    geometry: null,
+    fix: wholly
+      ? { action: 'move-inside', target: input.id, text: `delete patch ${input.id} or check the scene: the image holds nothing there` }
+      : { action: 'move-inside', target: input.id, text: `redraw patch ${input.id} where the image holds data, or leave it out of training` },
+    details: { overNoData: true, raster: mask.fileName, noDataValue: String(mask.value) },
   };
 }
