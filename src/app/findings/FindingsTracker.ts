@@ -1,12 +1,11 @@
 import type { CheckDelta } from '../../core/checks/CheckSession.ts';
 import { compareFindings, countByKind, type Finding, type FindingKind } from '../../core/checks/findings.ts';
-import type { CheckProgress, CheckScene, TrackedPatch } from './checkHost.ts';
+import { findingKey, type CheckProgress, type CheckScene, type TrackedPatch } from './checkHost.ts';
 import type { CheckRunner } from './checkRunner.ts';
 
 export type { TrackedPatch } from './checkHost.ts';
 
-/** One finding per kind and patches: the key a delta removes by. */
-const keyOf = (f: Finding) => `${f.kind}|${f.patches.join('\u0001')}`;
+const keyOf = findingKey;
 
 /**
  * Keeps a site's findings in step with its patches. The first sync checks everything

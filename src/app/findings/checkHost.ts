@@ -78,10 +78,19 @@ export class CheckHost {
   async apply(upserts: TrackedPatch[], removals: string[], signal?: AbortSignal): Promise<CheckDelta> {
     const inputs = upserts.map(toInput);
     if (this.#masks.length) await readMasksFor(this.#masks, this.#extents(inputs), signal);
-    const delta: CheckDelta = { removed: [], added: [] };
-    for (const input of inputs) merge(delta, this.#session.upsert(input));
-    for (const id of removals) merge(delta, this.#session.remove(id));
-    return delta;
+    // Edits apply one after another: a finding one adds and a later one removes never
+    // reaches the list, so the net change is kept, not the concatenation.
+    const removed: Finding[] = [];
+    const added = new Map<string, Finding>();
+    const take = (delta: CheckDelta) => {
+      for (const finding of delta.removed) {
+        if (!added.delete(findingKey(finding))) removed.push(finding);
+      }
+      for (const finding of delta.added) added.set(findingKey(finding), finding);
+    };
+    for (const input of inputs) take(this.#session.upsert(input));
+    for (const id of removals) take(this.#session.remove(id));
+    return { removed, added: [...added.values()] };
   }
 
   /** Boxes of the patches the checks will look at (past the vertex limit they do not). */
@@ -91,7 +100,5 @@ export class CheckHost {
   }
 }
 
-function merge(into: CheckDelta, delta: CheckDelta): void {
-  into.removed.push(...delta.removed);
-  into.added.push(...delta.added);
-}
+/** One finding per kind and patches: the key a list adds and removes by. */
+export const findingKey = (f: Finding) => `${f.kind}|${f.patches.join('\u0001')}`;
