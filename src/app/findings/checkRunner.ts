@@ -3,6 +3,7 @@ import type { Finding } from '../../core/checks/findings.ts';
 import { CheckHost, type CheckProgress, type CheckScene, type TrackedPatch } from './checkHost.ts';
 import type { ChecksMessage, ChecksReply } from './checks.worker.ts';
 import { packPatches } from './patchBatch.ts';
+import { callWorker, KEEP_LISTENING } from '../workerCall.ts';
 
 // Who runs the checks: a worker in the app (the page stays responsive), the calling
 // thread in tests. Both run CheckHost, so both apply the same rules.
@@ -111,38 +112,15 @@ export class WorkerCheckRunner implements CheckRunner {
   #call(message: Extract<ChecksMessage, { id: number }>, onReply: (reply: ChecksReply) => void, signal?: AbortSignal): Promise<void> {
     const worker = this.#worker;
     if (!worker) return Promise.reject(new Error('the checks have not been loaded'));
-    return new Promise<void>((resolve, reject) => {
-      const stop = () => {
-        worker.removeEventListener('message', onMessage);
-        worker.removeEventListener('error', onError);
-        signal?.removeEventListener('abort', onAbort);
-      };
-      const onMessage = (event: MessageEvent<ChecksReply>) => {
-        const reply = event.data;
-        if (reply.kind === 'read' || reply.id !== message.id) return;
+    return callWorker<ChecksReply, void>(worker, message, {
+      hear: (reply) => {
+        if (reply.kind === 'read' || reply.id !== message.id) return KEEP_LISTENING;
         onReply(reply);
-        if (reply.kind === 'loaded' || reply.kind === 'applied') {
-          stop();
-          resolve();
-        } else if (reply.kind === 'failed') {
-          stop();
-          reject(new Error(reply.message));
-        }
-      };
-      const onError = (event: ErrorEvent) => {
-        stop();
-        this.#end();
-        reject(new Error(event.message || 'the checks stopped unexpectedly'));
-      };
-      const onAbort = () => {
-        stop();
-        this.#end();
-        reject(abortError());
-      };
-      worker.addEventListener('message', onMessage);
-      worker.addEventListener('error', onError);
-      signal?.addEventListener('abort', onAbort, { once: true });
-      worker.postMessage(message);
+        if (reply.kind === 'loaded' || reply.kind === 'applied') return { done: true, value: undefined };
+        if (reply.kind === 'failed') return { done: true, error: new Error(reply.message) };
+        return KEEP_LISTENING;
+      },
+      signal, aborted: abortError, what: 'the checks', onBroken: () => this.#end(),
     });
   }
 
