@@ -59,10 +59,12 @@ export type FolderState =
 export interface FolderGrant {
   /** Where things stand now (the choice is kept in the browser's storage between visits). */
   state(): Promise<FolderState>;
-  /** Shows the folder picker; resolves to the new state ('none' when the user cancels). */
+  /** Shows the folder picker; resolves to the new state (unchanged when the user cancels). */
   choose(): Promise<FolderState>;
   /** Asks again for leave to write to the folder chosen before. */
   allowAgain(): Promise<FolderState>;
+  /** The folder's files when it is 'ready', else null. */
+  files(): Promise<AppFiles | null>;
 }
 
 export interface Platform {
