@@ -27,10 +27,13 @@ export class Workspace {
   error = $state<string | null>(null);
 
   #openers: SiteOpeners;
+  #adopt: (site: OpenSite) => Promise<OpenSite>;
   #abort: AbortController | null = null;
 
-  constructor(openers: SiteOpeners) {
+  /** `adopt` takes every site once opened, e.g. to keep its copy on disk (default: as it is). */
+  constructor(openers: SiteOpeners, options: { adopt?: (site: OpenSite) => Promise<OpenSite> } = {}) {
     this.#openers = openers;
+    this.#adopt = options.adopt ?? (async (site) => site);
   }
 
   openDemo(): Promise<void> {
@@ -49,8 +52,9 @@ export class Workspace {
     this.error = null;
     this.progress = { label, fraction: null };
     try {
-      const site = await opener((p) => (this.progress = p), abort.signal);
-      if (site === null) return; // the user cancelled the picker
+      const opened = await opener((p) => (this.progress = p), abort.signal);
+      if (opened === null) return; // the user cancelled the picker
+      const site = await this.#adopt(opened);
       if (abort.signal.aborted) {
         site.dispose();
         return;
