@@ -46,18 +46,22 @@ export class DirectoryAppFiles implements AppFiles {
   async read(name: string, range?: { offset: number; length: number }): Promise<Uint8Array | null> {
     checkAppFileName(name);
     if (range) checkRangeArguments(range.offset, range.length, name);
-    let file: File;
-    try {
-      file = await (await this.#dir.getFileHandle(name)).getFile();
-    } catch (error) {
-      if ((error as DOMException)?.name === 'NotFoundError' || (error as DOMException)?.name === 'TypeMismatchError') return null;
-      throw this.#failure(error, name, 'read');
-    }
-    const part = range ? file.slice(range.offset, clampRangeEnd(file.size, range.offset, range.length, name)) : file;
-    try {
-      return new Uint8Array(await part.arrayBuffer());
-    } catch (error) {
-      throw this.#failure(error, name, 'read');
+    // A File is a snapshot: replaced by a write while it is read, it reads as NotReadableError;
+    // the new content is then read instead.
+    for (let attempt = 1; ; attempt++) {
+      let file: File;
+      try {
+        file = await (await this.#dir.getFileHandle(name)).getFile();
+      } catch (error) {
+        if ((error as DOMException)?.name === 'NotFoundError' || (error as DOMException)?.name === 'TypeMismatchError') return null;
+        throw this.#failure(error, name, 'read');
+      }
+      const part = range ? file.slice(range.offset, clampRangeEnd(file.size, range.offset, range.length, name)) : file;
+      try {
+        return new Uint8Array(await part.arrayBuffer());
+      } catch (error) {
+        if ((error as DOMException)?.name !== 'NotReadableError' || attempt === 3) throw this.#failure(error, name, 'read');
+      }
     }
   }
 

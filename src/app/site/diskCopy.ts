@@ -64,8 +64,10 @@ export async function restoreFromDiskCopy(siteId: string, target: CopyTarget): P
 
 /** Where the keeper stands, for the save status on the desk. */
 export interface KeeperStatus {
-  /** the ledger head of the last copy written in this session, and when */
-  written: { seq: number; at: number } | null;
+  /** the ledger head of the last copy written, and when (null: found up to date, written before this session) */
+  written: { seq: number; at: number | null } | null;
+  /** the copy found on disk is of another history (set aside with the first write) */
+  otherHistory: boolean;
   /** the last write failed (shown until a write succeeds) */
   error: Error | null;
   /** a copy with another history found in the way, and the name it was set aside under */
@@ -97,7 +99,7 @@ export class DiskCopyKeeper {
   private inspection: Promise<Inspection> | null = null;
   private readonly listeners = new Set<(status: KeeperStatus) => void>();
   private disposed = false;
-  status: KeeperStatus = { written: null, error: null, setAside: null };
+  status: KeeperStatus = { written: null, otherHistory: false, error: null, setAside: null };
 
   /** the last error of a write, shown to the user until a write succeeds */
   get lastError(): Error | null {
@@ -118,8 +120,10 @@ export class DiskCopyKeeper {
       const last = events.at(-1)?.seq ?? 0;
       this.ledger = [...events, ...this.pending.filter((e) => e.seq > last)];
     });
-    void this.inspect().then(({ inWay, behind }) => {
-      if (behind && inWay === null && !this.disposed) void this.flush();
+    void this.inspect().then(({ inWay, behind, copySeq }) => {
+      if (inWay !== null) this.update({ otherHistory: true });
+      else if (!behind) this.update({ written: this.status.written ?? { seq: copySeq, at: null } });
+      else if (!this.disposed) void this.flush();
     }, () => undefined); // a failed read is told by the first write, which reads again
   }
 
@@ -143,11 +147,11 @@ export class DiskCopyKeeper {
     this.inspection ??= (async () => {
       await this.loaded;
       const text = await this.target.read(diskCopyName(this.store.state.site!.id));
-      if (text === null) return { inWay: null, behind: true };
+      if (text === null) return { inWay: null, behind: true, copySeq: 0 };
       const head = copyHead(text);
       const ours = head && this.ledger![head.seq - 1];
-      if (!ours || ours.hash !== head.hash) return { inWay: text, behind: true };
-      return { inWay: null, behind: head.seq !== this.store.state.head.seq };
+      if (!ours || ours.hash !== head.hash) return { inWay: text, behind: true, copySeq: head?.seq ?? 0 };
+      return { inWay: null, behind: head.seq !== this.store.state.head.seq, copySeq: head.seq };
     })();
     this.inspection.catch(() => (this.inspection = null));
     return this.inspection;
@@ -182,15 +186,14 @@ export class DiskCopyKeeper {
         if (inWay !== null && this.status.setAside === null) {
           const aside = asideCopyName(siteId, this.options.now?.() ?? new Date());
           await this.target.write(aside, inWay);
-          this.status = { ...this.status, setAside: aside };
+          this.update({ setAside: aside });
         }
         await this.target.write(diskCopyName(siteId), writeSiteFile(siteFileOf(state, ledger)));
-        this.status = { ...this.status, written: { seq: state.head.seq, at: Date.now() }, error: null };
+        this.update({ written: { seq: state.head.seq, at: Date.now() }, otherHistory: false, error: null });
       } catch (error) {
-        this.status = { ...this.status, error: error as Error };
+        this.update({ error: error as Error });
         this.options.onError?.(error as Error);
       }
-      this.emit();
     });
     return this.writing;
   }
@@ -198,6 +201,7 @@ export class DiskCopyKeeper {
   /** Writes what the copy still lacks, then stops following the store (closing a site). */
   async close(): Promise<void> {
     this.dispose();
+    await this.inspect().catch(() => undefined); // no write of the start may follow the last one
     await this.writing;
     if (this.status.written?.seq !== this.store.state.head.seq) await this.flush();
   }
@@ -209,6 +213,11 @@ export class DiskCopyKeeper {
     this.unsubscribe();
   }
 
+  private update(change: Partial<KeeperStatus>): void {
+    this.status = { ...this.status, ...change };
+    this.emit();
+  }
+
   private emit(): void {
     for (const listener of this.listeners) listener(this.status);
   }
@@ -217,6 +226,7 @@ export class DiskCopyKeeper {
 interface Inspection {
   inWay: string | null;
   behind: boolean;
+  copySeq: number;
 }
 
 /** The head a site file's text records, or null when the text is not a readable site file. */

@@ -14,8 +14,10 @@ export type CopyLine =
   | {
       kind: 'kept';
       where: string;
-      /** the last copy written this session: its time and how many saved changes it lacks now */
-      written: { at: number; behind: number } | null;
+      /** the last copy written (its time; null when found up to date from before) and how many saved changes it lacks now */
+      written: { at: number | null; behind: number } | null;
+      /** the copy found on disk is of another history; the first change sets it aside */
+      otherHistory: boolean;
       /** why the last write failed, and what to do */
       error: string | null;
       /** a copy of another history that was set aside (its file name), not overwritten */
@@ -57,11 +59,12 @@ export class DiskCopySession {
 
   get line(): CopyLine {
     if (!this.#keeper || !this.#status) return { kind: 'none', folder: this.#folder };
-    const { written, error, setAside } = this.#status;
+    const { written, otherHistory, error, setAside } = this.#status;
     return {
       kind: 'kept',
       where: this.#where,
       written: written && { at: written.at, behind: this.#store.state.head.seq - written.seq },
+      otherHistory,
       error: error && (error.message || String(error)),
       setAside,
     };
