@@ -2,7 +2,7 @@ import { bandTableFor, bandTableProblem } from '../core/bandTable.ts';
 import { createRenderPool } from '../imagery/renderPool.ts';
 import { Raster, type RangeReader } from '../imagery/Raster.ts';
 import { viewable } from '../imagery/pyramidCache.ts';
-import { indexedDbTileStore } from '../imagery/tileStore.ts';
+import { indexedDbTileStore, type TileStore } from '../imagery/tileStore.ts';
 import { urlReader } from '../imagery/urlSource.ts';
 import type { FileRef } from '../platform/types.ts';
 import { multispectralView, panchromaticView } from './sceneView.ts';
@@ -11,6 +11,8 @@ import type { OpenSite } from './site.ts';
 export interface OpenFilesOptions {
   onProgress?: (progress: { label: string; fraction: number | null }) => void;
   signal?: AbortSignal;
+  /** Where pyramid caches are kept (see tileStoreFor). Default: IndexedDB. */
+  tileStore?: () => Promise<TileStore | null>;
 }
 
 /**
@@ -33,7 +35,7 @@ export async function openImageryFiles(platform: RangeReader, files: FileRef[], 
           problems.push(`${file.name}: has no usable georeferencing (CRS and geotransform), so it cannot be placed on the map`);
           continue;
         }
-        const raster = await viewable(opened, indexedDbTileStore, { signal, onProgress });
+        const raster = await viewable(opened, options.tileStore ?? indexedDbTileStore, { signal, onProgress });
         await raster.bandLimits(0, 2, 98, signal); // decodes a small level: a broken file shows itself now
         rasters.push(raster);
       } catch (error) {
