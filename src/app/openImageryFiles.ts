@@ -2,7 +2,7 @@ import { bandTableFor, bandTableProblem } from '../core/bandTable.ts';
 import { createRenderPool } from '../imagery/renderPool.ts';
 import { Raster, type RangeReader } from '../imagery/Raster.ts';
 import { viewable } from '../imagery/pyramidCache.ts';
-import { indexedDbTileStore, type TileStore } from '../imagery/tileStore.ts';
+import { tileStoreFor, type TileStore } from '../imagery/tileStore.ts';
 import { urlReader } from '../imagery/urlSource.ts';
 import type { FileRef } from '../platform/types.ts';
 import { multispectralView, panchromaticView } from './sceneView.ts';
@@ -11,7 +11,9 @@ import type { OpenSite } from './site.ts';
 export interface OpenFilesOptions {
   onProgress?: (progress: { label: string; fraction: number | null }) => void;
   signal?: AbortSignal;
-  /** Where pyramid caches are kept (see tileStoreFor). Default: IndexedDB. */
+  /** a render pool to share (a site of two dates); the caller disposes it. Default: one of its own. */
+  pool?: ReturnType<typeof createRenderPool>;
+  /** Where pyramid caches are kept. Default: the platform's app files on disk where it has them, else IndexedDB (tileStoreFor). */
   tileStore?: () => Promise<TileStore | null>;
 }
 
@@ -23,7 +25,8 @@ export interface OpenFilesOptions {
 export async function openImageryFiles(platform: RangeReader, files: FileRef[], options: OpenFilesOptions = {}): Promise<OpenSite> {
   const { onProgress = () => {}, signal } = options;
   if (files.length === 0 || files.length > 2) throw new Error(`Pick one or two GeoTIFF files (a panchromatic and a multiband one); got ${files.length}.`);
-  const pool = createRenderPool();
+  const pool = options.pool ?? createRenderPool();
+  const disposePool = options.pool ? () => {} : () => pool.dispose();
   try {
     const rasters: Raster[] = [];
     const problems: string[] = [];
@@ -35,7 +38,7 @@ export async function openImageryFiles(platform: RangeReader, files: FileRef[], 
           problems.push(`${file.name}: has no usable georeferencing (CRS and geotransform), so it cannot be placed on the map`);
           continue;
         }
-        const raster = await viewable(opened, options.tileStore ?? indexedDbTileStore, { signal, onProgress });
+        const raster = await viewable(opened, options.tileStore ?? tileStoreFor(platform), { signal, onProgress });
         await raster.bandLimits(0, 2, 98, signal); // decodes a small level: a broken file shows itself now
         rasters.push(raster);
       } catch (error) {
@@ -89,10 +92,10 @@ export async function openImageryFiles(platform: RangeReader, files: FileRef[], 
       roster: [],
       fieldPolygons: { type: 'FeatureCollection', features: [] },
       notes,
-      dispose: () => pool.dispose(),
+      dispose: disposePool,
     };
   } catch (error) {
-    pool.dispose();
+    disposePool();
     throw error;
   }
 }

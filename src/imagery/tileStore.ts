@@ -57,12 +57,14 @@ export async function indexedDbTileStore(): Promise<TileStore | null> {
 const diskStores = new WeakMap<AppFiles, DiskTileStore>();
 
 /**
- * The tile store to open for a platform: the app's files on disk when it has them (one
- * store per folder, shared by every raster), else IndexedDB.
+ * The tile store to open for a reader: the app's files on disk when it is a platform that
+ * has them (one store per folder, shared by every raster), else IndexedDB.
  */
-export function tileStoreFor(platform: { appFiles(): Promise<AppFiles | null> }): () => Promise<TileStore | null> {
+export function tileStoreFor(reader: object): () => Promise<TileStore | null> {
+  const platform = reader as { appFiles?: () => Promise<AppFiles | null> };
+  if (typeof platform.appFiles !== 'function') return indexedDbTileStore;
   return async () => {
-    const files = await platform.appFiles().catch(() => null);
+    const files = await platform.appFiles!().catch(() => null);
     if (!files) return indexedDbTileStore();
     let store = diskStores.get(files);
     if (!store) diskStores.set(files, (store = new DiskTileStore(files)));
