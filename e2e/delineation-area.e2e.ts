@@ -1,5 +1,6 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
+import { layerCanvasStats } from './canvasStats.ts';
 import { openApp, screenshot, type Session, patchCount } from './browser.ts';
 
 // An independent delineation with its area drawn on the map before it starts: the area
@@ -40,6 +41,8 @@ describe('a delineation within a drawn area', () => {
     await clickOutline(page, [[200, 150], [700, 150], [700, 650], [200, 650]]);
     await expect.poll(() => panel.locator('[role="status"]').textContent()).toMatch(/^Area to delineate drawn: /);
     expect(await patchCount(page)).toBe(225); // the area is not a patch
+    const areaDrawn = () => layerCanvasStats(page, '.area-layer canvas').then((s) => s.opaqueShare);
+    await expect.poll(areaDrawn).toBeGreaterThan(0.001); // shown on the map before the pass starts
     await panel.locator('button:has-text("Start a delineation")').click();
     await expect.poll(() => panel.locator('[role="status"]').textContent()).toMatch(/^Delineation draw-dee-draw-1 for Dee Draw: they draw the patches within the area drawn/);
 
@@ -55,9 +58,11 @@ describe('a delineation within a drawn area', () => {
     await page.keyboard.press('Escape');
     await page.keyboard.press('1');
     await expect.poll(() => page.locator('[data-testid="save-status"]').textContent()).toContain('All saved');
+    expect(await areaDrawn()).toBeGreaterThan(0.001); // and to the one delineating, from the pass
     await screenshot(page, 'delineation-area-drawn');
     await page.locator('[data-testid="blind-mine"] button:has-text("End the pass")').click();
     await expect.poll(() => page.locator('[data-testid="blind-mine"]').count()).toBe(0);
+    await expect.poll(areaDrawn).toBe(0);
 
     await page.locator('nav button:has-text("Agreement sheet")').click();
     const sheet = page.locator('[data-testid="agreement-sheet"]');

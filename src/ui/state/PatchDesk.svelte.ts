@@ -44,6 +44,8 @@ export class PatchDesk {
   notice = $state<string | null>(null);
   /** the outline being drawn or edited, measured live */
   sketch = $state<OutlineMeasure | null>(null);
+  /** an area drawn for a delineation not yet started, shown on the map */
+  pendingArea = $state.raw<MultiPolygonRings | null>(null);
   /** bumped to ask the panel to focus its note or jump field */
   noteRequests = $state(0);
   jumpRequests = $state(0);
