@@ -52,6 +52,15 @@ export class Raster {
   }
 
   /**
+   * The same file placed elsewhere on the map (pixel space: see core/raster/pixelSpace),
+   * sharing its reads and its render pool.
+   */
+  placedAt(placement: Pick<TiffSummary, 'origin' | 'pixelSize' | 'extent'>): Raster {
+    const { origin, pixelSize, extent } = placement;
+    return new Raster(this.#reader, this.pool, this.file, { ...this.summary, origin, pixelSize, extent });
+  }
+
+  /**
    * Hears of tiles that could not be shown (a damaged block, a failed read): the message
    * of the latest and how many have failed. The rest of the raster stays usable.
    */

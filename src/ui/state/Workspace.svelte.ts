@@ -1,4 +1,5 @@
 import type { OpenSite } from '../../app/site.ts';
+import { PixelSpaceOffer } from '../../app/openImageryFiles.ts';
 import type { Surface } from '../surfaces.ts';
 
 export type Screen = 'start' | 'desk';
@@ -25,6 +26,8 @@ export class Workspace {
   site = $state.raw<OpenSite | null>(null);
   progress = $state<Progress | null>(null);
   error = $state<string | null>(null);
+  /** Picked files whose CRS cannot be placed on a map: why, and how to open them in pixel space instead. */
+  offer = $state.raw<{ message: string; open: Opener } | null>(null);
 
   #openers: SiteOpeners;
   #abort: AbortController | null = null;
@@ -42,11 +45,23 @@ export class Workspace {
     return this.#open('Opening the picked files', (onProgress, signal) => this.#openers.files(onProgress, signal));
   }
 
+  /** Opens the offered files in pixel space (view-only). */
+  acceptOffer(): Promise<void> {
+    const offer = this.offer;
+    this.offer = null;
+    return offer ? this.#open('Opening the files in pixel space', offer.open) : Promise.resolve();
+  }
+
+  declineOffer(): void {
+    this.offer = null;
+  }
+
   async #open(label: string, opener: Opener): Promise<void> {
     this.cancel();
     const abort = new AbortController();
     this.#abort = abort;
     this.error = null;
+    this.offer = null;
     this.progress = { label, fraction: null };
     try {
       const site = await opener((p) => (this.progress = p), abort.signal);
@@ -60,7 +75,9 @@ export class Workspace {
       this.screen = 'desk';
       this.surface = 'desk';
     } catch (error) {
-      if (!abort.signal.aborted) this.error = (error as Error).message;
+      if (abort.signal.aborted) return;
+      if (error instanceof PixelSpaceOffer) this.offer = { message: error.message, open: (onProgress, signal) => error.open({ onProgress, signal }) };
+      else this.error = (error as Error).message;
     } finally {
       if (this.#abort === abort) {
         this.#abort = null;
