@@ -65,6 +65,11 @@ export class ImageryLayers {
     }
   }
 
+  /** Whether any imagery is shown yet (the map is not ready before it is). */
+  get showing(): boolean {
+    return this.#main !== null;
+  }
+
   /** Where the swipe line is (0-1 of the map's width), or null when the dates are not swiped. */
   get swipePosition(): number | null {
     return this.#top && this.#flicker === null && this.#top.getVisible() ? this.#swipe : null;
