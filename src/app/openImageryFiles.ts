@@ -12,6 +12,8 @@ import { placementIn, referencePlacement, unplacedReason } from '../core/raster/
 export interface OpenFilesOptions {
   onProgress?: (progress: { label: string; fraction: number | null }) => void;
   signal?: AbortSignal;
+  /** a render pool to share (a site of two dates); the caller disposes it. Default: one of its own. */
+  pool?: ReturnType<typeof createRenderPool>;
   /** Show the scene in pixel space when its CRS cannot be placed on a map (see PixelSpaceOffer). */
   pixelSpace?: boolean;
 }
@@ -21,8 +23,9 @@ export interface OpenFilesOptions {
  * and `open` opens them in pixel space instead, if the user chooses to.
  */
 export class PixelSpaceOffer extends Error {
-  constructor(message: string, readonly open: (options: OpenFilesOptions) => Promise<OpenSite>) {
-    super(message);
+  /** `reasons`: one line per file that cannot be placed, naming it. */
+  constructor(readonly reasons: string[], readonly open: (options: OpenFilesOptions) => Promise<OpenSite>) {
+    super(`${reasons.join('\n')}\nThe imagery can still be looked at in pixel space: coordinates in pixels, no map, and no patches drawn or stored.`);
     this.name = 'PixelSpaceOffer';
   }
 }
@@ -37,7 +40,8 @@ export class PixelSpaceOffer extends Error {
 export async function openImageryFiles(platform: RangeReader, files: FileRef[], options: OpenFilesOptions = {}): Promise<OpenSite> {
   const { onProgress = () => {}, signal } = options;
   if (files.length === 0 || files.length > 2) throw new Error(`Pick one or two GeoTIFF files (a panchromatic and a multiband one); got ${files.length}.`);
-  const pool = createRenderPool();
+  const pool = options.pool ?? createRenderPool();
+  const disposePool = options.pool ? () => {} : () => pool.dispose();
   try {
     let rasters: Raster[] = [];
     const problems: string[] = [];
@@ -63,8 +67,8 @@ export async function openImageryFiles(platform: RangeReader, files: FileRef[], 
     if (problems.length) throw new Error(problems.join('\n'));
     if (unplaced.length && !options.pixelSpace) {
       throw new PixelSpaceOffer(
-        `${unplaced.join('\n')}\nThe imagery can still be looked at in pixel space: coordinates in pixels, no map, and no patches drawn or stored.`,
-        (again) => openImageryFiles(platform, files, { ...again, pixelSpace: true }),
+        unplaced,
+        (again) => openImageryFiles(platform, files, { ...again, pool: options.pool, pixelSpace: true }),
       );
     }
 
@@ -116,10 +120,10 @@ export async function openImageryFiles(platform: RangeReader, files: FileRef[], 
       roster: [],
       fieldPolygons: { type: 'FeatureCollection', features: [] },
       notes,
-      dispose: () => pool.dispose(),
+      dispose: disposePool,
     };
   } catch (error) {
-    pool.dispose();
+    disposePool();
     throw error;
   }
 }

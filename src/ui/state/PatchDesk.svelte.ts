@@ -1,5 +1,5 @@
 import type { SiteStore } from '../../store/SiteStore.ts';
-import { emptySiteState, type Confidence, type DisplaySettings, type RosterEntry, type SiteState, type Tag } from '../../core/site/index.ts';
+import { emptySiteState, isPaused, type Confidence, type DisplaySettings, type RosterEntry, type SiteState, type Tag } from '../../core/site/index.ts';
 import type { MultiPolygonRings } from '../../core/geometry/types.ts';
 import type { RasterGrid } from '../../core/geometry/rasterGrid.ts';
 import { findPatchId, hiddenPasses, nextMatching, patchOrder, shownTag, tagsByPatch } from '../../app/patches/patchIndex.ts';
@@ -38,14 +38,14 @@ export class PatchDesk {
   snap = $state(true);
   interpreter = $state('Interpreter A');
   status = $state<SaveStatus>('saved');
-  /** set while the interpreter's blind pass is paused: its keys do not tag */
-  blindPaused = $state(false);
   /** the last failure, told so a user can act on it */
   error = $state<string | null>(null);
   /** a plain remark on the last key (e.g. nothing left untagged) */
   notice = $state<string | null>(null);
   /** the outline being drawn or edited, measured live */
   sketch = $state<OutlineMeasure | null>(null);
+  /** an area drawn for a delineation not yet started, shown on the map */
+  pendingArea = $state.raw<MultiPolygonRings | null>(null);
   /** bumped to ask the panel to focus its note or jump field */
   noteRequests = $state(0);
   jumpRequests = $state(0);
@@ -53,6 +53,7 @@ export class PatchDesk {
   #tags: Map<string, Tag[]> = tagsByPatch(emptySiteState());
   #order: string[] = [];
   #pending = 0;
+  #capture: ((geometry: MultiPolygonRings) => void) | null = null;
   #store: SiteStore;
   #options: PatchDeskOptions;
   #unsubscribe: () => void;
@@ -147,6 +148,7 @@ export class PatchDesk {
       return;
     }
     this.tool = this.tool === tool ? 'select' : tool;
+    this.#capture = null; // a tool chosen by hand ends any request for an outline
     this.sketch = null;
     this.notice = null;
     this.#changed();
@@ -157,7 +159,27 @@ export class PatchDesk {
     this.#changed();
   }
 
+  /**
+   * Takes the next outline drawn on the map for something other than a patch (the area of
+   * a delineation): the draw tool is switched on, and the outline goes to `take`.
+   */
+  captureOutline(take: (geometry: MultiPolygonRings) => void, notice: string): void {
+    this.#capture = take;
+    this.tool = 'draw';
+    this.notice = notice;
+    this.#changed();
+  }
+
   add(geometry: MultiPolygonRings): Promise<void> {
+    const take = this.#capture;
+    if (take) {
+      this.#capture = null;
+      this.tool = 'select';
+      this.notice = null;
+      this.#changed();
+      take(geometry);
+      return Promise.resolve();
+    }
     return this.#save(async () => {
       const id = await addPatch(this.#store, geometry, this.#actor());
       this.select(id);
@@ -194,7 +216,7 @@ export class PatchDesk {
     if (!id) return this.#say('Select a patch first (click it, or U for the next untagged).');
     const context = { interpreter: this.interpreter, time: this.#now(), display: this.#options.display() };
     const blind = this.blindPass;
-    if (blind && this.blindPaused) return this.#say('The blind pass is paused: resume it to go on tagging.');
+    if (blind && isPaused(blind)) return this.#say('The blind pass is paused: resume it to go on tagging.');
     if (blind) return this.#save(() => tagInBlindPass(this.#store, blind.id, id, change, context));
     return this.#save(() => tagPatch(this.#store, id, change, context));
   }

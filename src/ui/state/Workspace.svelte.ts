@@ -37,26 +37,40 @@ export class Workspace {
   }
 
   openDemo(): Promise<void> {
-    return this.#open('Opening the demo site', (onProgress, signal) => this.#openers.demo(onProgress, signal));
+    return this.openWith('Opening the demo site', (onProgress, signal) => this.#openers.demo(onProgress, signal));
   }
 
   /** Asks for one or two GeoTIFFs and opens them as a scene. */
   openFiles(): Promise<void> {
-    return this.#open('Opening the picked files', (onProgress, signal) => this.#openers.files(onProgress, signal));
+    return this.openWith('Opening the picked files', (onProgress, signal) => this.#openers.files(onProgress, signal));
   }
 
   /** Opens the offered files in pixel space (view-only). */
   acceptOffer(): Promise<void> {
     const offer = this.offer;
     this.offer = null;
-    return offer ? this.#open('Opening the files in pixel space', offer.open) : Promise.resolve();
+    return offer ? this.openWith('Opening the files in pixel space', offer.open) : Promise.resolve();
   }
 
   declineOffer(): void {
     this.offer = null;
   }
 
-  async #open(label: string, opener: Opener): Promise<void> {
+  /** Opens a site by any opener (a new site, a stored one, a blind package), with progress and cancel. */
+  async openWith(label: string, opener: Opener): Promise<void> {
+    const site = await this.run(label, opener);
+    if (site === null) return; // cancelled, refused (see error) or backed out of
+    this.site?.dispose();
+    this.site = site;
+    this.screen = 'desk';
+    this.surface = 'desk';
+  }
+
+  /**
+   * Runs long work with the progress bar and its Cancel. Resolves to null when cancelled
+   * or refused (the refusal is in `error`); a result that comes after a cancel is let go.
+   */
+  async run<T extends object>(label: string, work: (onProgress: (p: Progress) => void, signal: AbortSignal) => Promise<T | null>): Promise<T | null> {
     this.cancel();
     const abort = new AbortController();
     this.#abort = abort;
@@ -64,20 +78,17 @@ export class Workspace {
     this.offer = null;
     this.progress = { label, fraction: null };
     try {
-      const site = await opener((p) => (this.progress = p), abort.signal);
-      if (site === null) return; // the user cancelled the picker
-      if (abort.signal.aborted) {
-        site.dispose();
-        return;
+      const result = await work((p) => (this.progress = p), abort.signal);
+      if (result !== null && abort.signal.aborted) {
+        (result as { dispose?(): void }).dispose?.();
+        return null;
       }
-      this.site?.dispose();
-      this.site = site;
-      this.screen = 'desk';
-      this.surface = 'desk';
+      return result;
     } catch (error) {
-      if (abort.signal.aborted) return;
+      if (abort.signal.aborted) return null;
       if (error instanceof PixelSpaceOffer) this.offer = { message: error.message, open: (onProgress, signal) => error.open({ onProgress, signal }) };
       else this.error = (error as Error).message;
+      return null;
     } finally {
       if (this.#abort === abort) {
         this.#abort = null;
