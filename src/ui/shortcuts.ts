@@ -18,7 +18,7 @@ export const shortcuts: Shortcut[] = [
   { keys: 'V', action: 'show the vegetation index', where: 'desk' },
   { keys: 'M', action: 'show only vegetation (index threshold) or all pixels', where: 'desk' },
   { keys: 'E', action: 'fit the stretch to the pixels on screen', where: 'desk' },
-  { keys: 'W', action: 'swipe the other date across this one, or stop', where: 'desk' },
+  { keys: 'W', action: 'swipe the other date across this one, or stop (drag the line on the map to move it)', where: 'desk' },
   { keys: 'B', action: 'flicker between the two dates, or stop', where: 'desk' },
   { keys: 'F', action: 'show or hide the field polygons', where: 'desk' },
   { keys: '1-7', action: 'tag the patch in hand with the roster entry of that key (each entry has its own key)', where: 'desk' },

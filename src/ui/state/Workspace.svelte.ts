@@ -1,4 +1,5 @@
 import type { OpenSite } from '../../app/site.ts';
+import { PixelSpaceOffer } from '../../app/openImageryFiles.ts';
 import type { Surface } from '../surfaces.ts';
 
 export type Screen = 'start' | 'desk';
@@ -25,6 +26,8 @@ export class Workspace {
   site = $state.raw<OpenSite | null>(null);
   progress = $state<Progress | null>(null);
   error = $state<string | null>(null);
+  /** Picked files whose CRS cannot be placed on a map: why, and how to open them in pixel space instead. */
+  offer = $state.raw<{ message: string; open: Opener } | null>(null);
 
   #openers: SiteOpeners;
   #adopt: (site: OpenSite) => Promise<OpenSite>;
@@ -43,6 +46,17 @@ export class Workspace {
   /** Asks for one or two GeoTIFFs and opens them as a scene. */
   openFiles(): Promise<void> {
     return this.openWith('Opening the picked files', (onProgress, signal) => this.#openers.files(onProgress, signal));
+  }
+
+  /** Opens the offered files in pixel space (view-only). */
+  acceptOffer(): Promise<void> {
+    const offer = this.offer;
+    this.offer = null;
+    return offer ? this.openWith('Opening the files in pixel space', offer.open) : Promise.resolve();
+  }
+
+  declineOffer(): void {
+    this.offer = null;
   }
 
   /** Opens a site by any opener (a new site, a stored one, a blind package), with progress and cancel. */
@@ -65,6 +79,7 @@ export class Workspace {
     const abort = new AbortController();
     this.#abort = abort;
     this.error = null;
+    this.offer = null;
     this.progress = { label, fraction: null };
     try {
       const result = await work((p) => (this.progress = p), abort.signal);
@@ -74,7 +89,9 @@ export class Workspace {
       }
       return result;
     } catch (error) {
-      if (!abort.signal.aborted) this.error = (error as Error).message;
+      if (abort.signal.aborted) return null;
+      if (error instanceof PixelSpaceOffer) this.offer = { message: error.message, open: (onProgress, signal) => error.open({ onProgress, signal }) };
+      else this.error = (error as Error).message;
       return null;
     } finally {
       if (this.#abort === abort) {
