@@ -155,6 +155,44 @@ describe('settling disagreements on the Rulings page', () => {
     expect(after.out).toBe(before.out + 3);
   });
 
+  it('takes a patch to the desk to cut it, and comes back to the same place in the queue', async () => {
+    const { page } = session!;
+    await page.locator('nav button:has-text("Rulings")').click();
+    await page.locator('[data-testid="filter-status"]').selectOption('all');
+    const listed = page.locator('[data-testid="rulings-queue"] li button');
+    const before = await listed.count();
+    const target = (await listed.nth(1).getAttribute('data-patch'))!;
+    await listed.nth(1).click();
+    await expect.poll(() => rulingPatch(page)).toBe(target);
+    await blur(page);
+    await page.keyboard.press('g');
+    // The desk opens with the patch in hand, centred, and says how to come back.
+    await expect.poll(() => page.locator('[data-testid="desk-errand"]').textContent()).toContain(`Patch ${target} came from the rulings`);
+    await expect.poll(() => inHand(page)).toBe(target);
+    await mapReady(page);
+    await screenshot(page, 'rulings-errand-desk');
+    const patchCount = async () => Number((await page.locator('.patch-panel > p.detail').last().textContent())?.match(/(\d+) patches/)?.[1]);
+    const count = await patchCount();
+    const box = (await page.locator('[data-testid="map"]').boundingBox())!;
+    const cx = box.x + box.width / 2, cy = box.y + box.height / 2;
+    await page.keyboard.press('l');
+    await page.mouse.click(cx - 300, cy);
+    await page.waitForTimeout(150);
+    await page.mouse.dblclick(cx + 300, cy + 3);
+    await expect.poll(() => patchCount()).toBe(count + 1);
+    await expect.poll(() => saved(page)).toContain('All saved');
+    await page.keyboard.press('Escape');
+    await page.keyboard.press('Shift+G');
+    // Back on the Rulings page: the same filter, the same patch in hand, and the cut-off
+    // piece (it carries the same calls) waiting in the queue as a disagreement of its own.
+    await expect.poll(() => rulingPatch(page)).toBe(target);
+    expect(await page.locator('[data-testid="filter-status"]').inputValue()).toBe('all');
+    await expect.poll(() => listed.count()).toBe(before + 1);
+    expect(await page.locator('[data-testid="desk-errand"]').count()).toBe(0);
+    await mapReady(page, 'ruling-map');
+    await screenshot(page, 'rulings-back-from-desk');
+  });
+
   it('two windows ruling on one patch: the second is refused and told to reopen, the first stands', async () => {
     const { page, context } = session!;
     const message = (p: Page) => p.locator('[data-testid="ruling-message"]').textContent();
