@@ -148,6 +148,28 @@ describe('settling disagreements on the Rulings page', () => {
     await screenshot(page, 'rulings-settled');
   });
 
+  it('shows the patch in hand beside the median spectra of the species its calls name', async () => {
+    const { page } = session!;
+    await page.locator('[data-testid="filter-status"]').selectOption('all');
+    // A patch called ABFI (the demo's commonest species with pure pixels under the default rule).
+    const item = page.locator('[data-testid="rulings-queue"] li button', { hasText: 'ABFI' }).first();
+    await item.click();
+    const named = ((await item.locator('.calls').textContent()) ?? '').split(' / ').filter((s) => roster.some((r) => r.code === s));
+    const lines = page.locator('[data-testid="species-references"] li');
+    await expect.poll(() => lines.evaluateAll((els) => els.map((e) => e.getAttribute('data-species')))).toEqual([...new Set(named)]);
+    const abfi = page.locator('[data-testid="species-references"] li[data-species="ABFI"]');
+    await expect.poll(() => abfi.getAttribute('data-drawn'), { timeout: 60_000 }).toBe('true');
+    expect(await abfi.textContent()).toMatch(/ABFI .*median of its settled patches\s*\d+ pure px in \d+ of \d+ settled patch/);
+    // Drawn: the patch solid, each species dashed, each over its shaded interval.
+    const panel = page.locator('[data-testid="ruling-hand"] [data-testid="spectrum-panel"]');
+    const svg = panel.locator('svg');
+    await expect.poll(() => svg.locator('polyline:not([stroke-dasharray])').count()).toBe(1);
+    expect(await svg.locator('polyline[stroke-dasharray]').count()).toBeGreaterThanOrEqual(1);
+    await panel.scrollIntoViewIfNeeded();
+    await screenshot(page, 'rulings-spectra');
+    await page.locator('[data-testid="filter-status"]').selectOption('open');
+  });
+
   it('lets the export take the ruled patches', async () => {
     const { page } = session!;
     const after = await openDisagreementsInExport(page);

@@ -5,6 +5,9 @@ import { sendToThirdReader } from '../../app/rulings/sendToThirdReader.ts';
 import { openBlindPassOf } from '../../core/blind/index.ts';
 import type { Finding } from '../../core/checks/findings.ts';
 import { filterQueue, itemAtPlace, overridesEveryone, queueProgress, speciesPairs, type DisagreementKind, type QueueItem } from '../../core/rulings/index.ts';
+import { settledPatchesBySpecies } from '../../core/rulings/speciesSpectrum.ts';
+import { namesNoSpecies } from '../../core/blind/answers.ts';
+import type { MultiPolygonRings } from '../../core/geometry/types.ts';
 import { tagsOfPatch, type Ruling, type RulingDecision, type SiteState } from '../../core/site/index.ts';
 import type { SiteStore } from '../../store/SiteStore.ts';
 import { systemClock } from '../../app/site/context.ts';
@@ -20,6 +23,7 @@ export type { StatusFilter };
 export class RulingsDesk {
   #raw = $state.raw<SiteState>(null as unknown as SiteState);
   #queue = $derived.by<RulingsQueue>(() => rulingsQueue(this.#raw, this.interpreter));
+  #settled = $derived.by(() => settledPatchesBySpecies(this.#queue.view));
   reason = $state('');
   /** a decision waiting for its reason (it overrides every call) */
   pending = $state.raw<RulingDecision | null>(null);
@@ -106,6 +110,21 @@ export class RulingsDesk {
     const cur = this.current;
     if (!cur) return [];
     return [...this.#raw.rulings.values()].filter((r) => r.patchId === cur.patchId).sort((a, b) => b.time.localeCompare(a.time) || b.id.localeCompare(a.id));
+  }
+
+  /** The species the patch in hand is called or ruled, in call order, for its spectrum's company. */
+  get speciesInvolved(): string[] {
+    const cur = this.current;
+    if (!cur) return [];
+    const named = [...cur.calls.map((c) => c.species), cur.consensus.species ?? ''];
+    const roster = this.#raw.roster.map((e) => e.code);
+    return named.filter((s, i) => named.indexOf(s) === i && !namesNoSpecies(s) && roster.includes(s));
+  }
+
+  /** The outlines of the patches settled as a species. */
+  settledOutlines(species: string): MultiPolygonRings[] {
+    const patches = this.#queue.view.patches;
+    return (this.#settled.get(species) ?? []).map((id) => patches.get(id)!.geometry);
   }
 
   get findings(): Finding[] {
