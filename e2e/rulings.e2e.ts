@@ -8,9 +8,9 @@ import { openApp, screenshot, type Session } from './browser.ts';
 // disagreements are seeded through the app itself: a blind second look by another
 // interpreter on the desk, some calls differing from the field file's. A third person
 // then settles each on the Rulings page without the mouse — accept A, accept B, and a
-// species overruling both, which asks for a reason — and the export's preview shows the
-// open disagreements gone. The agreement sheet compares passes only (rulings do not
-// change kappa), so it is not asked about rulings here.
+// species overruling both, which asks for a reason — and the agreement sheet says what
+// the rulings made of the differing calls while the export's preview shows the open
+// disagreements gone.
 
 const demo = join(import.meta.dirname, '..', 'demo');
 const field = JSON.parse(readFileSync(join(demo, 'field.geojson'), 'utf8')) as { features: { properties: { id: string; species: string } }[] };
@@ -170,8 +170,22 @@ describe('settling disagreements on the Rulings page', () => {
     await page.locator('[data-testid="filter-status"]').selectOption('open');
   });
 
-  it('lets the export take the ruled patches', async () => {
+  it('lets the agreement sheet and the export reflect the rulings', async () => {
     const { page } = session!;
+    // The sheet compares the field crew's pass with Ben's blind one by default, and says
+    // what the three rulings made of their three differing calls.
+    await page.locator('nav button:has-text("Agreement sheet")').click();
+    const settled = page.locator('[data-testid="settled-figures"]');
+    await expect.poll(() => settled.locator('[data-figure="settled"]').textContent()).toBe('3 of 3');
+    expect(await settled.locator('[data-figure="open"]').textContent()).toBe('0');
+    expect(await settled.locator('[data-figure="settled-why"]').textContent()).toMatch(/^Of the 3 patches the two passes called differently, 3 are settled \(.+\) and 0 are still open/);
+    const rows = settled.locator('[data-testid="against-settled"] tbody tr');
+    expect(await rows.count()).toBe(2);
+    expect(await rows.nth(1).getAttribute('data-pass')).toBe('blind-ben-blind-1');
+    // Ben called 8 patches, all settled now; his calls match where the rulings took them.
+    expect(await rows.nth(1).locator('td').first().textContent()).toBe(String(SAMPLE));
+    await settled.scrollIntoViewIfNeeded();
+    await screenshot(page, 'agreement-after-rulings');
     const after = await openDisagreementsInExport(page);
     expect(after.open).toBe(before.open - 3);
     expect(after.out).toBe(before.out + 3);
