@@ -21,6 +21,7 @@ export const shortcuts: Shortcut[] = [
   { keys: 'W', action: 'swipe the other date across this one, or stop', where: 'desk' },
   { keys: 'B', action: 'flicker between the two dates, or stop', where: 'desk' },
   { keys: 'F', action: 'show or hide the field polygons', where: 'desk' },
+  { keys: 'Shift+P', action: 'show or hide the pure pixels (of the patch in hand; of every patch in view when close)', where: 'desk' },
   { keys: '1-7', action: 'tag the patch in hand with the roster entry of that key (each entry has its own key)', where: 'desk' },
   { keys: 'H', action: 'confidence of your call: sure', where: 'desk' },
   { keys: 'J', action: 'confidence of your call: likely', where: 'desk' },
