@@ -122,7 +122,7 @@ describe('drawing and tagging a patch by keys', () => {
     await expect.poll(() => saved(page)).toContain('All saved');
   });
 
-  it('cuts the patch in hand with a line, joins the pieces again, and undoes both', async () => {
+  it('cuts the patch in hand with a line, joins the pieces again, and undoes each in one step', async () => {
     const { page } = session!;
     // The jump centred P0001 in the map; a line straight across it cuts it in two.
     const box = (await page.locator('[data-testid="map"]').boundingBox())!;
@@ -141,12 +141,11 @@ describe('drawing and tagging a patch by keys', () => {
     await page.mouse.click(cx, cy + 40);
     await expect.poll(() => patchCount(page)).toBe(226);
     await expect.poll(() => page.locator('[data-testid="patch-measure"] dd').first().textContent()).toBe(area);
-    // A join is two steps (the outline, then the other piece), and so is a cut.
-    await page.keyboard.press('Control+z');
+    // A join is one step, and so is a cut.
     await page.keyboard.press('Control+z');
     await expect.poll(() => patchCount(page)).toBe(227); // the join undone: two pieces again
     await expect.poll(() => saved(page)).toContain('All saved');
-    await page.keyboard.press('Control+z');
+    await expect.poll(() => page.locator('[data-testid="patch-measure"] dd').first().textContent()).not.toBe(area);
     await page.keyboard.press('Control+z');
     await expect.poll(() => patchCount(page)).toBe(226); // the cut undone
     await expect.poll(() => page.locator('[data-testid="patch-measure"] dd').first().textContent()).toBe(area);
@@ -163,6 +162,29 @@ describe('drawing and tagging a patch by keys', () => {
     await expect.poll(() => ownTag(page)).toContain('ABFI, sure');
     await page.keyboard.press('u');
     await expect.poll(() => page.locator('[data-testid="patch-in-hand"] .id b').textContent()).not.toBe(id);
+  });
+});
+
+describe('picking a patch from far away', () => {
+  it('takes a patch in hand by a click at a zoom where the patches are one painted image', async () => {
+    const { page } = session!;
+    await page.keyboard.press('g');
+    await page.keyboard.type('F012');
+    await page.keyboard.press('Enter');
+    await expect.poll(() => page.locator('[data-testid="patch-in-hand"] .id b').textContent()).toBe('F012');
+    // The jump centred F012; zoom out (about the centre) until the outlines give way to the painted view.
+    for (let i = 0; i < 5; i++) {
+      await page.click('.ol-zoom-out');
+      await page.waitForTimeout(300);
+    }
+    await mapReady(page);
+    const box = (await page.locator('[data-testid="map"]').boundingBox())!;
+    // A click on bare ground clears the hand; a click on the centre picks F012 again.
+    await page.mouse.click(box.x + 12, box.y + box.height - 12);
+    await expect.poll(() => page.locator('[data-testid="patch-in-hand"] .id b').count()).toBe(0);
+    await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+    await expect.poll(() => page.locator('[data-testid="patch-in-hand"] .id b').textContent()).toBe('F012');
+    await screenshot(page, 'patches-far-pick');
   });
 });
 

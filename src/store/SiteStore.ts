@@ -3,6 +3,7 @@ import {
   applyEvent, emptySiteState, inverseOf, tagKey, touchedRows, type EventDraft, type LedgerEvent,
   type RosterEntry, type Site, type SiteState,
 } from '../core/site/index.ts';
+import type { Scheme } from '../core/training/scheme.ts';
 import { patchMeasures, SiteDatabase, siteDatabaseName, type PatchRow, type TagRow } from './schema.ts';
 import { StorageError, storageError } from './StorageError.ts';
 import { forgetSite, rememberSite } from './siteCatalogue.ts';
@@ -83,6 +84,7 @@ export class SiteStore {
           { key: 'history', value: state.history },
           { key: 'site', value: state.site },
           { key: 'roster', value: state.roster },
+          { key: 'schemes', value: state.schemes },
         ]);
         await db.scenes.bulkPut([...state.scenes.values()]);
         await db.patches.bulkPut([...state.patches.values()].map((p) => ({ ...p, ...patchMeasures(p.geometry) })));
@@ -198,6 +200,7 @@ export class SiteStore {
         ];
         if (rows.site) meta.push({ key: 'site', value: next.site });
         if (rows.roster) meta.push({ key: 'roster', value: next.roster });
+        if (rows.schemes) meta.push({ key: 'schemes', value: next.schemes });
         await db.meta.bulkPut(meta);
         await syncRows(db.patches, rows.patches, (id) => patchRow(next, id));
         await syncRows(db.tags, rows.tags, (key) => {
@@ -251,6 +254,7 @@ async function loadState(db: SiteDatabase): Promise<SiteState> {
     return {
       site: (meta.get('site') as Site | undefined) ?? null,
       roster: (meta.get('roster') as RosterEntry[] | undefined) ?? [],
+      schemes: (meta.get('schemes') as Scheme[] | undefined) ?? [],
       history: (meta.get('history') as SiteState['history'] | undefined) ?? empty.history,
       head: (meta.get('head') as SiteState['head'] | undefined) ?? empty.head,
       scenes: new Map((await db.scenes.toArray()).map((r) => [r.id, r])),

@@ -1,7 +1,7 @@
 // Storage failures told in words a user can act on. IndexedDB reports a full disk or a
 // used-up quota as QuotaExceededError, but inside a transaction it often surfaces as an
-// AbortError whose `inner` (Dexie) or `cause` carries the quota error, so we look down
-// the chain.
+// AbortError whose `inner` (Dexie) or `cause` carries the quota error, or as a Dexie
+// BulkError whose `failures` hold it, so we look down the chain.
 
 export class StorageError extends Error {
   constructor(
@@ -14,15 +14,22 @@ export class StorageError extends Error {
   }
 }
 
-function chain(error: unknown): { name?: string; message?: string }[] {
-  const seen: { name?: string; message?: string }[] = [];
-  let current = error as { name?: string; message?: string; inner?: unknown; cause?: unknown } | undefined;
+type Link = { name?: string; message?: string; inner?: unknown; cause?: unknown; failures?: unknown };
+
+function chain(error: unknown): Link[] {
+  const seen: Link[] = [];
+  let current = error as Link | undefined;
   while (current && typeof current === 'object' && seen.length < 8) {
     seen.push(current);
-    current = (current.inner ?? current.cause) as typeof current;
+    // A bulk write fails as a whole when one of its writes fails: follow the first.
+    const failure = Array.isArray(current.failures) ? current.failures[0] : undefined;
+    current = (current.inner ?? current.cause ?? failure) as Link | undefined;
   }
   return seen;
 }
+
+/** Errors that only wrap another: they say nothing of the cause themselves. */
+const WRAPPERS = new Set(['Error', 'BulkError']);
 
 export function isQuotaError(error: unknown): boolean {
   return chain(error).some((e) => e.name === 'QuotaExceededError' || /quota/i.test(e.message ?? ''));
@@ -47,7 +54,7 @@ export function storageError(error: unknown, siteName: string): StorageError {
   // fills before the quota is reached.
   const links = chain(error);
   const aborted = (e: { name?: string }) => e.name === 'AbortError' || e.name === 'UnknownError';
-  if (links.some(aborted) && links.every((e) => aborted(e) || e.name === 'Error')) {
+  if (links.some(aborted) && links.every((e) => aborted(e) || WRAPPERS.has(e.name ?? ''))) {
     return new StorageError(
       `Site "${siteName}": the last change was not saved because the browser's storage refused it (${said}); a full disk is the usual cause. ` +
         'Everything saved before it is kept. Free some disk space, save a backup of this site to another disk, then try the change again.',

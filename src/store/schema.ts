@@ -25,7 +25,7 @@ export interface TagRow extends Tag {
   key: string;
 }
 
-/** meta rows: 'head' {seq, hash}, 'history' {undo, redo}, 'site' {site}, 'roster' {entries} */
+/** meta rows: 'head' {seq, hash}, 'history' {undo, redo}, 'site' {site}, 'roster' {entries}, 'schemes' (absent before the first) */
 export interface MetaRow {
   key: string;
   value: unknown;

@@ -43,6 +43,46 @@ describe('SiteStore', () => {
     expect((await listSites()).some((s) => s.id === id)).toBe(true);
   });
 
+  it('keeps a one-step cut, its undo, the stored schemes and a held pass in the rows, across a reopen', async () => {
+    const store = await newSite();
+    await store.commit(add('p0'));
+    await store.commitWith((s) => ({ kind: 'tag.set', payload: { patchId: 'p0', passId: 'pass-1', tag: tag('p0', 'PICE'), previous: s.tags.get(tagKey('p0', 'pass-1')) ?? null }, actor: 'ak', time: at(1) }));
+    const original = store.state.patches.get('p0')!;
+    const tags = [store.state.tags.get(tagKey('p0', 'pass-1'))!];
+    const half = (x: number): typeof original.geometry => [[[[x, 0], [x + 2, 0], [x + 2, 4], [x, 4], [x, 0]]]];
+    await store.commit({
+      kind: 'patches.replaced',
+      payload: { edit: 'cut', before: { patches: [original], tags }, after: { patches: [{ ...original, geometry: half(0) }, { ...patch('p1'), geometry: half(2) }], tags: [...tags, { ...tags[0], patchId: 'p1' }] } },
+      actor: 'ak', time: at(2),
+    });
+    const scheme = { name: 'spruce against the rest', classOf: { PICE: 'PICE' } };
+    await store.commit({ kind: 'schemes.set', payload: { schemes: [scheme], previous: [] }, actor: 'ak', time: at(3) });
+    await store.commit({ kind: 'pass.started', payload: { pass: { id: 'blind-1', interpreter: 'bj', blind: true, startedAt: at(4), endedAt: null, patchIds: ['p0'] } }, actor: 'ak', time: at(4) });
+    await store.commit({ kind: 'pass.paused', payload: { passId: 'blind-1', time: at(5) }, actor: 'bj', time: at(5) });
+    const id = store.state.site!.id;
+    const cut = store.state;
+    store.close();
+    let again = await SiteStore.open(id);
+    opened[opened.indexOf(store)] = again;
+    expect(again.state).toEqual(cut);
+    expect(again.state.schemes).toEqual([scheme]);
+    expect(again.state.passes.get('blind-1')!.pauses).toEqual([{ pausedAt: at(5), resumedAt: null }]);
+    await again.undo('ak', at(6)); // the schemes
+    await again.undo('ak', at(7)); // the whole cut in one step
+    expect(again.state.patches.has('p1')).toBe(false);
+    expect(again.state.tags.has(tagKey('p1', 'pass-1'))).toBe(false);
+    expect(again.state.patches.get('p0')!.geometry).toEqual(original.geometry);
+    const undone = again.state;
+    again.close();
+    const third = await SiteStore.open(id);
+    opened[opened.indexOf(again)] = third;
+    again = third;
+    expect(again.state).toEqual(undone);
+    expect(again.state.schemes).toEqual([]);
+    expect(await again.verify()).toMatchObject({ ok: true });
+    expect(replay(emptySiteState(), await again.ledger())).toEqual(again.state);
+  });
+
   it('undoes and redoes many steps durably across a reopen', async () => {
     const store = await newSite();
     for (let i = 0; i < 30; i++) await store.commit(add(`p${i}`, i * 10));

@@ -24,5 +24,13 @@ describe('storage errors', () => {
     expect(refused.kind).toBe('refused');
     expect(refused.message).toMatch(/^Site "Upper basin": the last change was not saved because the browser's storage refused it \(AbortError: The transaction was aborted\); a full disk is the usual cause/);
     expect(storageError(new DOMException('dup', 'ConstraintError'), 'Upper basin').kind).toBe('other');
+    // a bulk write of Dexie failing because its transaction was aborted (seen with the disk full)
+    const bulk = storageError({ name: 'BulkError', message: 'patches.bulkPut(): 1 of 1 operations failed', failures: [new DOMException('The transaction was aborted', 'AbortError')] }, 'Upper basin');
+    expect(bulk.kind).toBe('refused');
+    expect(bulk.message).toMatch(/^Site "Upper basin": the last change was not saved because the browser's storage refused it \(BulkError: /);
+    const bulkQuota = storageError({ name: 'BulkError', message: 'tags.bulkPut(): 1 of 2 operations failed', failures: [new DOMException('The quota has been exceeded.', 'QuotaExceededError')] }, 'Upper basin');
+    expect(bulkQuota.kind).toBe('full');
+    // a bulk write refused for a reason of its own is not a full disk
+    expect(storageError({ name: 'BulkError', message: 'x', failures: [new DOMException('dup', 'ConstraintError')] }, 'Upper basin').kind).toBe('other');
   });
 });

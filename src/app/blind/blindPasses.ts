@@ -3,7 +3,7 @@ import {
   BlindError, isBlindCall, openBlindPassOf, patchesOfPass, referenceCalls, selectPatches, shuffledOrder,
   type PatchSelection, type SelectedPatches,
 } from '../../core/blind/index.ts';
-import { CONFIDENCES, tagKey, type Confidence, type DisplaySettings, type Pass, type SiteState, type Tag } from '../../core/site/index.ts';
+import { CONFIDENCES, isPaused, tagKey, type Confidence, type DisplaySettings, type Pass, type SiteState, type Tag } from '../../core/site/index.ts';
 import type { SiteWriter } from './siteWriter.ts';
 
 // Starting, tagging in and ending a blind pass. Every step is one ledger event; the
@@ -91,6 +91,21 @@ export async function endBlindPass(store: SiteWriter, passId: string, actor: Act
   });
 }
 
+/**
+ * Holds an open blind pass (`hold` true) or takes it up again: one ledger event with
+ * its time, so the history shows every break. Asking for the state it is in already
+ * writes nothing.
+ */
+export async function pauseBlindPass(store: SiteWriter, passId: string, hold: boolean, actor: Actor): Promise<void> {
+  await store.commitWith((state) => {
+    const pass = state.passes.get(passId);
+    if (!pass || !pass.blind) throw new BlindError(`There is no blind pass ${passId} in this site.`);
+    if (pass.endedAt !== null) throw new BlindError(`Blind pass ${passId} has ended.`);
+    if (isPaused(pass) === hold) return null;
+    return { kind: hold ? 'pass.paused' : 'pass.resumed', payload: { passId, time: actor.time }, actor: actor.interpreter, time: actor.time };
+  });
+}
+
 export interface BlindCall {
   species?: string;
   confidence?: Confidence;
@@ -109,6 +124,7 @@ export async function tagInBlindPass(store: SiteWriter, passId: string, patchId:
     if (!pass || !pass.blind) throw new BlindError(`There is no blind pass ${passId} in this site.`);
     if (pass.endedAt !== null) throw new BlindError(`Blind pass ${passId} has ended; its calls can no longer change.`);
     if (pass.interpreter !== actor.interpreter) throw new BlindError(`Blind pass ${passId} belongs to ${pass.interpreter}, not ${actor.interpreter}.`);
+    if (isPaused(pass)) throw new BlindError(`Blind pass ${passId} is paused: resume it to go on calling.`);
     if (!patchesOfPass(state, pass).some((p) => p.id === patchId)) throw new BlindError(`Patch ${patchId} is not part of blind pass ${passId}.`);
     if (call.species !== undefined && !isBlindCall(state.roster, call.species)) {
       throw new BlindError(`"${call.species}" is neither a roster code nor one of mixed, unknown, can't tell.`);

@@ -1,13 +1,13 @@
 import type { SiteStore } from '../../store/SiteStore.ts';
-import type { LedgerEvent, Patch, Tag } from '../../core/site/index.ts';
+import type { LedgerEvent, Patch, SiteState, Tag } from '../../core/site/index.ts';
 import type { MultiPolygonRings } from '../../core/geometry/types.ts';
 import { newPatchId } from './patchIndex.ts';
 import { mergeOutlines, splitOutline } from './outlineEdits.ts';
 
 // Outline edits of the desk, each one or more durable ledger events. Every edit reads
 // the state at its turn in the store's queue, so a `previous` value is never stale.
-// Split and merge are two events each (change one outline, add or remove the other), so
-// they take two undo steps.
+// A cut or a join changes several patches in one `patches.replaced` event, so one undo
+// reverses it whole.
 
 export interface Actor {
   interpreter: string;
@@ -53,26 +53,51 @@ export async function splitPatch(store: SiteStore, patchId: string, line: [numbe
   const patch = store.state.patches.get(patchId);
   if (!patch) return [];
   const [kept, ...others] = splitOutline(patch.geometry, line);
-  await editPatchGeometry(store, patchId, kept, who);
   const ids: string[] = [];
-  for (const piece of others) {
-    await store.commitWith((state) => {
-      const id = newPatchId(state);
+  await store.commitWith((state) => {
+    const original = state.patches.get(patchId);
+    if (!original) return null;
+    const tags = tagsOf(state, patchId);
+    const pieces: Patch[] = [{ ...original, geometry: kept }];
+    const pieceTags: Tag[] = [...tags];
+    for (const piece of others) {
+      const id = newPatchId(state, pieces.map((p) => p.id));
       ids.push(id);
-      const tags: Tag[] = [...state.tags.values()].filter((t) => t.patchId === patchId).map((t) => ({ ...t, patchId: id }));
-      const added: Patch = { id, geometry: piece, source: { kind: 'drawn' }, createdAt: who.time, createdBy: who.interpreter };
-      return { kind: 'patch.added', payload: { patch: added, tags }, actor: who.interpreter, time: who.time };
-    });
-  }
+      pieces.push({ id, geometry: piece, source: { kind: 'drawn' }, createdAt: who.time, createdBy: who.interpreter });
+      pieceTags.push(...tags.map((t) => ({ ...t, patchId: id })));
+    }
+    return {
+      kind: 'patches.replaced',
+      payload: { edit: 'cut', before: { patches: [original], tags }, after: { patches: pieces, tags: pieceTags } },
+      actor: who.interpreter, time: who.time,
+    };
+  });
   return ids;
 }
 
-/** Merges patch `other` into `into`: `into` takes the union, `other` is deleted. */
+/** Merges patch `other` into `into`: `into` takes the union and keeps its tags, `other` goes with its own. */
 export async function mergePatches(store: SiteStore, into: string, other: string, who: Actor): Promise<void> {
   const a = store.state.patches.get(into);
   const b = store.state.patches.get(other);
   if (!a || !b || into === other) return;
   const merged = mergeOutlines(a.geometry, b.geometry);
-  await editPatchGeometry(store, into, merged, who);
-  await deletePatch(store, other, who);
+  await store.commitWith((state) => {
+    const kept = state.patches.get(into);
+    const gone = state.patches.get(other);
+    if (!kept || !gone) return null;
+    const keptTags = tagsOf(state, into);
+    return {
+      kind: 'patches.replaced',
+      payload: {
+        edit: 'join',
+        before: { patches: [kept, gone], tags: [...keptTags, ...tagsOf(state, other)] },
+        after: { patches: [{ ...kept, geometry: merged }], tags: keptTags },
+      },
+      actor: who.interpreter, time: who.time,
+    };
+  });
+}
+
+function tagsOf(state: SiteState, patchId: string): Tag[] {
+  return [...state.tags.values()].filter((t) => t.patchId === patchId);
 }

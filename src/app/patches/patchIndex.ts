@@ -62,9 +62,9 @@ export function findPatchId(state: SiteState, typed: string): string | null {
 }
 
 /** A fresh id for a drawn patch: P and the next number no patch uses. */
-export function newPatchId(state: SiteState): string {
+export function newPatchId(state: SiteState, alsoTaken: Iterable<string> = []): string {
   let highest = 0;
-  for (const id of state.patches.keys()) {
+  for (const id of [...state.patches.keys(), ...alsoTaken]) {
     const m = /^P(\d+)$/.exec(id);
     if (m) highest = Math.max(highest, Number(m[1]));
   }

@@ -14,7 +14,11 @@ export type GeometryChange =
       /** for an estimated field-to-imagery shift: its 95 % radius (metres) and method */
       uncertaintyM?: number; method?: string;
     }
-  | { kind: 'edit'; seq: number; by: string; time: string; undo: boolean };
+  | {
+      kind: 'edit'; seq: number; by: string; time: string; undo: boolean;
+      /** set when the outline was cut by a line or joined with another patch */
+      how?: 'cut' | 'join';
+    };
 
 export interface PatchOrigin {
   /** The event that made the patch as it now is (a later delete and undo makes it anew). */
@@ -70,6 +74,24 @@ export function patchHistory(events: readonly LedgerEvent[]): PatchHistory {
       const list = changes.get(patchId);
       if (list) list.push(change);
       else changes.set(patchId, [change]);
+    } else if (e.kind === 'patches.replaced') {
+      // A cut or a join: a patch on both sides changed its outline; a piece new to the
+      // site starts here, a piece of a cut keeping the history of the outline it came from.
+      const { edit, before, after } = e.payload;
+      const undo = e.undoes !== undefined;
+      const beforeIds = new Set(before.patches.map((p) => p.id));
+      const inherited = edit === 'cut' && !undo ? [...(changes.get(before.patches[0].id) ?? [])] : [];
+      for (const p of after.patches) {
+        const change: GeometryChange = { kind: 'edit', ...stamp, undo, how: edit };
+        if (beforeIds.has(p.id)) {
+          const list = changes.get(p.id);
+          if (list) list.push(change);
+          else changes.set(p.id, [change]);
+        } else {
+          origin.set(p.id, stamp);
+          changes.set(p.id, [...inherited, change]);
+        }
+      }
     } else if (e.kind === 'patches.shifted') {
       // An estimated shift moves the set; moving back (restore, or its undo) is the shift reversed.
       const { direction, record, outlines } = e.payload;

@@ -34,7 +34,7 @@ export type ExportedSource =
 export type ExportedTransformation =
   | { kind: 'reprojection'; from: string; to: string }
   | { kind: 'shift'; dx: number; dy: number; by: string; time: string; ledger_seq: number; undo: boolean; uncertainty_m?: number; method?: string }
-  | { kind: 'edit'; by: string; time: string; ledger_seq: number; undo: boolean };
+  | { kind: 'edit'; by: string; time: string; ledger_seq: number; undo: boolean; how?: 'cut' | 'join' };
 
 export interface ExportedPatch {
   id: string;
@@ -146,7 +146,7 @@ function transformationsOf(patch: Patch, state: SiteState, history: PatchHistory
           kind: 'shift', dx: c.dx, dy: c.dy, by: c.by, time: c.time, ledger_seq: c.seq, undo: c.undo,
           ...(c.uncertaintyM !== undefined ? { uncertainty_m: c.uncertaintyM, method: c.method } : {}),
         }
-      : { kind: 'edit', by: c.by, time: c.time, ledger_seq: c.seq, undo: c.undo });
+      : { kind: 'edit', by: c.by, time: c.time, ledger_seq: c.seq, undo: c.undo, ...(c.how ? { how: c.how } : {}) });
   }
   return out;
 }

@@ -1,7 +1,7 @@
 import { SiteRuleError } from './SiteRuleError.ts';
 import { UNDOABLE_KINDS, type LedgerEvent, type ShiftedOutline } from './events.ts';
 import { UNDO_DEPTH, type SiteState } from './state.ts';
-import { tagKey, type Patch, type Tag } from './types.ts';
+import { isPaused, tagKey, type Pass, type Patch, type Tag } from './types.ts';
 
 // The one reducer of the site: pure, it returns a new state and never changes the one it
 // was given (maps are copied only when the event touches them). It refuses an event that
@@ -72,6 +72,24 @@ function withShiftedOutlines(state: SiteState, outlines: readonly ShiftedOutline
   return withSet(state.patches, moved);
 }
 
+function requirePass(state: SiteState, id: string): Pass {
+  const pass = state.passes.get(id);
+  if (!pass) throw new SiteRuleError(`no pass ${id} in the site`);
+  return pass;
+}
+
+/** Holds or takes up an open blind pass, keeping every earlier period. */
+function withPause(state: SiteState, passId: string, time: string, hold: boolean): Partial<SiteState> {
+  const pass = requirePass(state, passId);
+  if (!pass.blind || pass.endedAt !== null) throw new SiteRuleError(`pass ${passId} is not an open blind pass`);
+  if (isPaused(pass) === hold) throw new SiteRuleError(`pass ${passId} is ${hold ? 'already' : 'not'} paused`);
+  const periods = pass.pauses ?? [];
+  const pauses = hold
+    ? [...periods, { pausedAt: time, resumedAt: null }]
+    : [...periods.slice(0, -1), { ...periods[periods.length - 1], resumedAt: time }];
+  return { passes: withSet(state.passes, [[pass.id, { ...pass, pauses }]]) };
+}
+
 function applyChange(state: SiteState, event: LedgerEvent): Partial<SiteState> {
   switch (event.kind) {
     case 'site.created':
@@ -95,6 +113,11 @@ function applyChange(state: SiteState, event: LedgerEvent): Partial<SiteState> {
     }
     case 'patches.shifted':
       return { patches: withShiftedOutlines(state, event.payload.outlines) };
+    case 'patches.replaced': {
+      const { before, after } = event.payload;
+      const removed = { ...state, ...removePatches(state, before.patches, before.tags) };
+      return addPatches(removed, after.patches, after.tags);
+    }
     case 'tag.set': {
       const { patchId, passId, tag } = event.payload;
       requirePatch(state, patchId);
@@ -125,9 +148,25 @@ function applyChange(state: SiteState, event: LedgerEvent): Partial<SiteState> {
       if (state.passes.has(event.payload.pass.id)) throw new SiteRuleError(`pass ${event.payload.pass.id} already exists`);
       return { passes: withSet(state.passes, [[event.payload.pass.id, event.payload.pass]]) };
     case 'pass.ended': {
-      const pass = state.passes.get(event.payload.passId);
-      if (!pass) throw new SiteRuleError(`no pass ${event.payload.passId} in the site`);
-      return { passes: withSet(state.passes, [[pass.id, { ...pass, endedAt: event.payload.time }]]) };
+      const pass = requirePass(state, event.payload.passId);
+      // Ending a held pass closes its last pause at the same moment.
+      const pauses = isPaused(pass) ? pass.pauses!.map((p) => (p.resumedAt === null ? { ...p, resumedAt: event.payload.time } : p)) : pass.pauses;
+      return { passes: withSet(state.passes, [[pass.id, { ...pass, endedAt: event.payload.time, ...(pauses ? { pauses } : {}) }]]) };
+    }
+    case 'pass.paused':
+      return withPause(state, event.payload.passId, event.payload.time, true);
+    case 'pass.resumed':
+      return withPause(state, event.payload.passId, event.payload.time, false);
+    case 'interpreter.switched':
+      // Recorded for the history only: who is at the desk is the machine's, not the site's.
+      return {};
+    case 'schemes.set': {
+      const names = new Set<string>();
+      for (const scheme of event.payload.schemes) {
+        if (names.has(scheme.name)) throw new SiteRuleError(`two schemes are called "${scheme.name}"`);
+        names.add(scheme.name);
+      }
+      return { schemes: event.payload.schemes };
     }
     case 'ruling.recorded': {
       const { ruling } = event.payload;

@@ -29,6 +29,10 @@ export function inverseOf(event: LedgerEvent): Change {
         },
       };
     }
+    case 'patches.replaced':
+      return { kind: 'patches.replaced', payload: { edit: event.payload.edit, before: event.payload.after, after: event.payload.before } };
+    case 'schemes.set':
+      return { kind: 'schemes.set', payload: { schemes: event.payload.previous, previous: event.payload.schemes } };
     case 'tag.set':
       return {
         kind: 'tag.set',

@@ -6,6 +6,7 @@ import { emptySiteState, type SiteState } from './state.ts';
 import type {
   ImportRecord, Pass, Patch, ReferenceFeature, RosterEntry, Ruling, SceneRef, Site, Tag,
 } from './types.ts';
+import type { Scheme } from '../training/scheme.ts';
 
 // The site file: a whole site in one JSON document, for backup, restore on another
 // machine, the copy on disk and `fellfield export`. Not the imagery: scenes are named by
@@ -13,8 +14,8 @@ import type {
 //
 //   {
 //     "format": "fellfield-site",
-//     "version": 1,                 // SITE_FILE_VERSION; a reader refuses a newer one
-//     "site": Site, "scenes": SceneRef[], "roster": RosterEntry[],
+//     "version": 2,                 // SITE_FILE_VERSION; a reader refuses a newer one
+//     "site": Site, "scenes": SceneRef[], "roster": RosterEntry[], "schemes": Scheme[],
 //     "patches": Patch[], "tags": Tag[], "passes": Pass[], "rulings": Ruling[],
 //     "references": ReferenceFeature[], "imports": ImportRecord[],
 //     "history": { "undo": seq[], "redo": seq[] },
@@ -24,9 +25,11 @@ import type {
 //
 // The current-state members are there for readers that do not replay; a reader that
 // restores checks them: the ledger must verify and replay to exactly those members.
+// Version 2 added the event kinds of one-step cuts and joins, pass pauses, interpreter
+// switches and stored schemes, and the "schemes" member (read as [] from version 1).
 
 export const SITE_FILE_FORMAT = 'fellfield-site';
-export const SITE_FILE_VERSION = 1;
+export const SITE_FILE_VERSION = 2;
 
 export interface SiteFile {
   format: typeof SITE_FILE_FORMAT;
@@ -34,6 +37,7 @@ export interface SiteFile {
   site: Site;
   scenes: SceneRef[];
   roster: RosterEntry[];
+  schemes: Scheme[];
   patches: Patch[];
   tags: Tag[];
   passes: Pass[];
@@ -62,6 +66,7 @@ export function siteFileOf(state: SiteState, ledger: LedgerEvent[]): SiteFile {
     site: state.site,
     scenes: byId(state.scenes),
     roster: [...state.roster],
+    schemes: [...state.schemes],
     patches: byId(state.patches),
     tags: byId(state.tags),
     passes: byId(state.passes),
@@ -115,7 +120,8 @@ export async function readSiteFile(fileName: string, text: string): Promise<{ st
     throw new SiteFileError(fileName, `the ledger cannot be replayed (${(error as Error).message})`);
   }
   const expected = siteFileOf(state, ledger);
-  for (const member of ['site', 'scenes', 'roster', 'patches', 'tags', 'passes', 'rulings', 'references', 'imports', 'history', 'head'] as const) {
+  if (doc.version === 1) doc.schemes = []; // version 1 had no stored schemes
+  for (const member of ['site', 'scenes', 'roster', 'schemes', 'patches', 'tags', 'passes', 'rulings', 'references', 'imports', 'history', 'head'] as const) {
     if (canonicalJson(doc[member] ?? null) !== canonicalJson(expected[member])) {
       throw new SiteFileError(fileName, `its "${member}" do not match its ledger; the file was changed or damaged, so it is not restored`);
     }

@@ -1,6 +1,7 @@
 import type {
   ImportRecord, Pass, Patch, ReferenceFeature, RosterEntry, Ruling, SceneRef, Site, Tag,
 } from './types.ts';
+import type { Scheme } from '../training/scheme.ts';
 
 /** The current state of a site: what replaying its ledger from empty gives. */
 export interface SiteState {
@@ -14,6 +15,8 @@ export interface SiteState {
   rulings: ReadonlyMap<string, Ruling>;
   references: ReadonlyMap<string, ReferenceFeature>;
   imports: ReadonlyMap<string, ImportRecord>;
+  /** the site's named training schemes, in the order the user keeps them */
+  schemes: readonly Scheme[];
   /** seqs of the events an undo would reverse (last on top) and of the undos a redo would */
   history: { undo: readonly number[]; redo: readonly number[] };
   /** the last event applied: seq 0 and 64 zeros before the first */
@@ -36,6 +39,7 @@ export function emptySiteState(): SiteState {
     rulings: new Map(),
     references: new Map(),
     imports: new Map(),
+    schemes: [],
     history: { undo: [], redo: [] },
     head: { seq: 0, hash: GENESIS_HASH },
   };

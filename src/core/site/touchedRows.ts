@@ -5,6 +5,7 @@ import { tagKey } from './types.ts';
 export interface TouchedRows {
   site: boolean;
   roster: boolean;
+  schemes: boolean;
   scenes: string[];
   patches: string[];
   tags: string[];
@@ -16,7 +17,7 @@ export interface TouchedRows {
 
 export function touchedRows(event: LedgerEvent): TouchedRows {
   const rows: TouchedRows = {
-    site: false, roster: false, scenes: [], patches: [], tags: [], passes: [], rulings: [], references: [], imports: [],
+    site: false, roster: false, schemes: false, scenes: [], patches: [], tags: [], passes: [], rulings: [], references: [], imports: [],
   };
   switch (event.kind) {
     case 'site.created':
@@ -40,6 +41,14 @@ export function touchedRows(event: LedgerEvent): TouchedRows {
     case 'patches.shifted':
       rows.patches.push(...event.payload.outlines.map((o) => o.patchId));
       break;
+    case 'patches.replaced':
+      // A cut keeps the patch's id on one piece: each row is listed once.
+      rows.patches.push(...new Set([event.payload.before, event.payload.after].flatMap((side) => side.patches.map((p) => p.id))));
+      rows.tags.push(...new Set([event.payload.before, event.payload.after].flatMap((side) => side.tags.map((t) => tagKey(t.patchId, t.passId)))));
+      break;
+    case 'schemes.set':
+      rows.schemes = true;
+      break;
     case 'tag.set':
       rows.tags.push(tagKey(event.payload.patchId, event.payload.passId));
       break;
@@ -54,6 +63,8 @@ export function touchedRows(event: LedgerEvent): TouchedRows {
       rows.passes.push(event.payload.pass.id);
       break;
     case 'pass.ended':
+    case 'pass.paused':
+    case 'pass.resumed':
       rows.passes.push(event.payload.passId);
       break;
     case 'ruling.recorded':

@@ -104,6 +104,20 @@ export interface Pass {
   endedAt: string | null;
   /** the patches asked for in a blind pass; null when the pass covers everything */
   patchIds: string[] | null;
+  /** when the pass was held and taken up again, oldest first; absent until its first pause */
+  pauses?: PausePeriod[];
+}
+
+/** A blind pass held (no calls taken) from `pausedAt` until `resumedAt`, null while held. */
+export interface PausePeriod {
+  pausedAt: string;
+  resumedAt: string | null;
+}
+
+/** Whether a pass is held right now. */
+export function isPaused(pass: Pass): boolean {
+  const last = pass.pauses?.at(-1);
+  return last !== undefined && last.resumedAt === null;
 }
 
 export type RulingDecision =

@@ -1,5 +1,5 @@
 import type { SiteStore } from '../../store/SiteStore.ts';
-import { emptySiteState, type Confidence, type DisplaySettings, type RosterEntry, type SiteState, type Tag } from '../../core/site/index.ts';
+import { emptySiteState, isPaused, type Confidence, type DisplaySettings, type RosterEntry, type SiteState, type Tag } from '../../core/site/index.ts';
 import type { MultiPolygonRings } from '../../core/geometry/types.ts';
 import type { RasterGrid } from '../../core/geometry/rasterGrid.ts';
 import { findPatchId, hiddenPasses, nextMatching, patchOrder, shownTag, tagsByPatch } from '../../app/patches/patchIndex.ts';
@@ -38,8 +38,6 @@ export class PatchDesk {
   snap = $state(true);
   interpreter = $state('Interpreter A');
   status = $state<SaveStatus>('saved');
-  /** set while the interpreter's blind pass is paused: its keys do not tag */
-  blindPaused = $state(false);
   /** the last failure, told so a user can act on it */
   error = $state<string | null>(null);
   /** a plain remark on the last key (e.g. nothing left untagged) */
@@ -194,7 +192,7 @@ export class PatchDesk {
     if (!id) return this.#say('Select a patch first (click it, or U for the next untagged).');
     const context = { interpreter: this.interpreter, time: this.#now(), display: this.#options.display() };
     const blind = this.blindPass;
-    if (blind && this.blindPaused) return this.#say('The blind pass is paused: resume it to go on tagging.');
+    if (blind && isPaused(blind)) return this.#say('The blind pass is paused: resume it to go on tagging.');
     if (blind) return this.#save(() => tagInBlindPass(this.#store, blind.id, id, change, context));
     return this.#save(() => tagPatch(this.#store, id, change, context));
   }

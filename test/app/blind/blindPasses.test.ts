@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { endBlindPass, passProgress, startBlindPass, startDelineation, tagInBlindPass } from '../../../src/app/blind/blindPasses.ts';
+import { endBlindPass, passProgress, pauseBlindPass, startBlindPass, startDelineation, tagInBlindPass } from '../../../src/app/blind/blindPasses.ts';
+import { recordInterpreterSwitch } from '../../../src/app/blind/interpreterSwitch.ts';
 import { exportBlindAnswers, exportBlindPackage, importBlindAnswers, receiveBlindPackage } from '../../../src/app/blind/blindFiles.ts';
 import { InterpreterProfiles } from '../../../src/app/blind/interpreterProfiles.ts';
-import { PassPauses } from '../../../src/app/blind/passPauses.ts';
 import { blindView, readBlindPackage } from '../../../src/core/blind/index.ts';
-import { emptySiteState } from '../../../src/core/site/index.ts';
+import { emptySiteState, isPaused, replay } from '../../../src/core/site/index.ts';
 import { verifyChain } from '../../../src/core/ledger/chain.ts';
 import { blindSite } from '../../core/blind/blindSite.ts';
 import { MemoryKeyValue, MemorySite } from './memorySite.ts';
@@ -120,15 +120,32 @@ describe('interpreter profiles and pauses', () => {
     expect(again.switches.map((s) => [s.from, s.to])).toEqual([[null, 'Ana Example'], ['Ana Example', 'Ben Sample']]);
   });
 
-  it('pauses and resumes a pass, with the times kept', () => {
-    const kv = new MemoryKeyValue();
-    const pauses = new PassPauses(kv, 'site-1', () => '2025-08-01T00:00:00.000Z');
-    pauses.pause('blind-1');
-    expect(new PassPauses(kv, 'site-1', () => '').isPaused('blind-1')).toBe(true);
-    pauses.resume('blind-1');
-    expect(pauses.isPaused('blind-1')).toBe(false);
-    expect(pauses.periods('blind-1')).toEqual([{ pausedAt: '2025-08-01T00:00:00.000Z', resumedAt: '2025-08-01T00:00:00.000Z' }]);
-    expect(new PassPauses(kv, 'site-2', () => '').isPaused('blind-1')).toBe(false);
+  it('pauses and resumes a pass in the ledger: no call while held, every period kept, and the same after a replay', async () => {
+    const store = await site();
+    const { pass } = await startBlindPass(store, { kind: 'picked', patchIds: ['P1', 'P2'] }, at('ben'));
+    const paused = at('ben');
+    await pauseBlindPass(store, pass.id, true, paused);
+    await pauseBlindPass(store, pass.id, true, at('ben')); // already held: nothing written
+    expect(store.events.filter((e) => e.kind === 'pass.paused').length).toBe(1);
+    await expect(tagInBlindPass(store, pass.id, 'P1', { species: 'mixed' }, { ...at('ben'), display })).rejects.toThrow(/is paused/);
+    const resumed = at('ben');
+    await pauseBlindPass(store, pass.id, false, resumed);
+    expect(isPaused(store.state.passes.get(pass.id)!)).toBe(false);
+    expect(await tagInBlindPass(store, pass.id, 'P1', { species: 'mixed' }, { ...at('ben'), display })).not.toBeNull();
+    expect(store.state.passes.get(pass.id)!.pauses).toEqual([{ pausedAt: paused.time, resumedAt: resumed.time }]);
+    expect(replay(emptySiteState(), store.events)).toEqual(store.state);
+    await endBlindPass(store, pass.id, at('ana'));
+    await expect(pauseBlindPass(store, pass.id, true, at('ben'))).rejects.toThrow(/has ended/);
+  });
+
+  it('records a switch of interpreter in the site, not a second time for the same person', async () => {
+    const store = await site();
+    const before = store.events.length;
+    await recordInterpreterSwitch(store, 'ana', { name: 'ben', initials: 'B' }, at('ben').time);
+    await recordInterpreterSwitch(store, 'ben', { name: 'ben', initials: 'B' }, at('ben').time);
+    expect(store.events.length).toBe(before + 1);
+    expect(store.events.at(-1)).toMatchObject({ kind: 'interpreter.switched', actor: 'ben', payload: { from: 'ana', to: 'ben', initials: 'B' } });
+    expect((await verifyChain(store.events)).ok).toBe(true);
   });
 });
 
