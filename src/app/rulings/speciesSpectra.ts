@@ -4,7 +4,7 @@ import { patchPixels } from '../../core/pixels/patchPixels.ts';
 import type { PixelRule } from '../../core/pixels/rule.ts';
 import { poolPixels, pooledSpectrum, type PooledPixels, type PooledSpectrum } from '../../core/rulings/speciesSpectrum.ts';
 import type { TiffSummary } from '../../core/tiff/inspectTiff.ts';
-import { inlineRunner, JobWorker, type JobRunner } from '../jobs/jobWorker.ts';
+import { inlineRunner, type JobRunner } from '../jobs/jobWorker.ts';
 
 // The spectrum of each species across the site, for reading a disputed patch against:
 // the pure pixels (core/pixels, the same rule as the training set) of every patch
@@ -125,13 +125,4 @@ export class SpeciesSpectra {
 
 function sameOutlines(a: readonly MultiPolygonRings[], b: readonly MultiPolygonRings[]): boolean {
   return a.length === b.length && a.every((o, i) => o === b[i]);
-}
-
-/** The runner the app uses: a worker of its own, the pooled pixels handed over, not copied. */
-export function spectraInWorker(): JobWorker<SpectrumJob, PooledSpectrum> {
-  return new JobWorker(
-    () => new Worker(new URL('./spectrum.worker.ts', import.meta.url), { type: 'module', name: 'fellfield-spectra' }),
-    'working out the species spectra',
-    (job) => [job.pooled.values.buffer, job.pooled.starts.buffer],
-  );
 }

@@ -1,4 +1,5 @@
-import { SpeciesSpectra, spectraInWorker, type PixelSource, type SpeciesReference } from '../../app/rulings/speciesSpectra.ts';
+import { SpeciesSpectra, type PixelSource, type SpeciesReference } from '../../app/rulings/speciesSpectra.ts';
+import { spectraInWorker } from '../../app/rulings/spectraRunner.ts';
 import type { MultiPolygonRings } from '../../core/geometry/types.ts';
 import { describeRule, type PixelRule } from '../../core/pixels/rule.ts';
 import type { BandSpectrum } from '../../core/render/spectrum.ts';
