@@ -11,6 +11,7 @@ import type { MultiPolygonRings } from '../../core/geometry/types.ts';
 import { tagsOfPatch, type Ruling, type RulingDecision, type SiteState } from '../../core/site/index.ts';
 import type { SiteStore } from '../../store/SiteStore.ts';
 import { systemClock } from '../../app/site/context.ts';
+import { tellFailure } from '../state/tellFailure.ts';
 import { rulingsPlaceOf, type RulingsPlace, type StatusFilter } from './RulingsPlace.svelte.ts';
 
 // The state of the Rulings page: the queue of the stored site, its filters, the patch
@@ -246,11 +247,7 @@ export class RulingsDesk {
   async #run(work: () => Promise<void>): Promise<boolean> {
     this.busy = true;
     try {
-      await work();
-      return true;
-    } catch (error) {
-      this.message = { text: (error as Error).message, problem: true };
-      return false;
+      return await tellFailure(work, (text) => (this.message = { text, problem: true }));
     } finally {
       this.busy = false;
     }
