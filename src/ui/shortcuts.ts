@@ -56,6 +56,8 @@ export const shortcuts: Shortcut[] = [
   { keys: 'Shift+T', action: 'send the patch to a third reader (a blind pass of that patch)', where: 'rulings' },
   { keys: 'G', action: 'take the patch in hand to the desk to cut or reshape it first', where: 'rulings' },
   { keys: 'P N C S V D', action: 'imagery of the patch in hand: pan, natural, infrared, pan-sharpened, index, other date', where: 'rulings' },
+  { keys: 'Ctrl+Z', action: 'on the Training sheet: undo the last change of the site (a scheme edit, or one made on the desk)', where: 'sheets' },
+  { keys: 'Ctrl+Shift+Z, Ctrl+Y', action: 'on the Training sheet: redo', where: 'sheets' },
   { keys: 'Ctrl+S', action: 'save the whole site (not the imagery) as one backup file', where: 'everywhere' },
   { keys: '?', action: 'open this page of keys and cautions', where: 'everywhere' },
   { keys: 'Esc', action: 'back to the desk from another page', where: 'everywhere' },
