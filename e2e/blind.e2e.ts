@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { openApp, screenshot, type Session } from './browser.ts';
+import { openApp, screenshot, type Session, patchCount } from './browser.ts';
 import { layerCanvasStats } from './canvasStats.ts';
 
 // A blind pass on the demo, end to end in Chromium with real IndexedDB: the desk's
@@ -30,7 +30,6 @@ async function mapReady(page: Page) {
 
 const inHand = (page: Page) => page.locator('[data-testid="patch-in-hand"] .id b').textContent();
 const saved = (page: Page) => page.locator('[data-testid="save-status"]').textContent();
-const patchCount = async (page: Page) => Number((await page.locator('.patch-panel > p.detail').last().textContent())?.match(/(\d+) patches/)?.[1]);
 const blur = (page: Page) => page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
 
 const NOTE = 'NOTE-7Q: crown half in shadow';
@@ -93,7 +92,7 @@ describe('a blind pass on the demo', () => {
     await mapReady(page);
 
     const text = await page.locator('body').innerText();
-    for (const leak of [NOTE, 'field crew', 'Interpreter A', 'Field polygons', 'GPS survey']) expect(text).not.toContain(leak);
+    for (const leak of [NOTE, 'field crew', 'Interpreter A', 'Field polygons', 'GPS survey', 'field polygon, feature']) expect(text).not.toContain(leak);
     // Every outline in one neutral colour: no saturated pixel of any hue on the patch layer.
     const stats = await layerCanvasStats(page, '.stored-patches-layer canvas');
     expect(stats.opaqueShare).toBeGreaterThan(0.0002);

@@ -55,6 +55,12 @@ export function baseUrl(): string {
   return inject('appUrl');
 }
 
+/** How many patches the desk's patch panel counts. */
+export async function patchCount(page: Page): Promise<number> {
+  const line = await page.locator('.patch-panel > p.detail').last().textContent();
+  return Number(line?.match(/(\d+) patch(?:es)? ·/)?.[1]);
+}
+
 export async function screenshot(page: Page, name: string): Promise<Buffer> {
   mkdirSync(artifactsDir, { recursive: true });
   return page.screenshot({ path: join(artifactsDir, `${name}.png`) });

@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { openApp, screenshot, type Session } from './browser.ts';
+import { openApp, screenshot, type Session, patchCount } from './browser.ts';
 import { layerCanvasStats } from './canvasStats.ts';
 
 // Drawing and tagging on the desk, by keys, in real IndexedDB: draw a patch by clicks,
@@ -33,7 +33,6 @@ async function zoomIn(page: Page, times: number) {
 
 const ownTag = (page: Page) => page.locator('[data-testid="own-tag"]').textContent();
 const saved = (page: Page) => page.locator('[data-testid="save-status"]').textContent();
-const patchCount = async (page: Page) => Number((await page.locator('.patch-panel > p.detail').last().textContent())?.match(/(\d+) patches/)?.[1]);
 
 describe('drawing and tagging a patch by keys', () => {
   let area = '';

@@ -11,6 +11,8 @@ import type { OpenSite } from './site.ts';
 export interface OpenFilesOptions {
   onProgress?: (progress: { label: string; fraction: number | null }) => void;
   signal?: AbortSignal;
+  /** a render pool to share (a site of two dates); the caller disposes it. Default: one of its own. */
+  pool?: ReturnType<typeof createRenderPool>;
 }
 
 /**
@@ -21,7 +23,8 @@ export interface OpenFilesOptions {
 export async function openImageryFiles(platform: RangeReader, files: FileRef[], options: OpenFilesOptions = {}): Promise<OpenSite> {
   const { onProgress = () => {}, signal } = options;
   if (files.length === 0 || files.length > 2) throw new Error(`Pick one or two GeoTIFF files (a panchromatic and a multiband one); got ${files.length}.`);
-  const pool = createRenderPool();
+  const pool = options.pool ?? createRenderPool();
+  const disposePool = options.pool ? () => {} : () => pool.dispose();
   try {
     const rasters: Raster[] = [];
     const problems: string[] = [];
@@ -87,10 +90,10 @@ export async function openImageryFiles(platform: RangeReader, files: FileRef[], 
       roster: [],
       fieldPolygons: { type: 'FeatureCollection', features: [] },
       notes,
-      dispose: () => pool.dispose(),
+      dispose: disposePool,
     };
   } catch (error) {
-    pool.dispose();
+    disposePool();
     throw error;
   }
 }

@@ -97,6 +97,11 @@ export class Raster {
     return { x0: bx * tw, y0: by * th, x1: (bx + 1) * tw, y1: (by + 1) * th };
   }
 
+  /** Bytes of the file by range, for readers that decode elsewhere (a checks worker). */
+  readBytes(offset: number, length: number, signal?: AbortSignal): Promise<Uint8Array> {
+    return this.#reader.readRange(this.file, offset, length, signal);
+  }
+
   /** The compressed block of one band holding pixel (col, row) of a level, fetched by its byte range. */
   async encodedBlock(level: number, band: number, col: number, row: number, signal?: AbortSignal): Promise<PlacedTile> {
     const info = this.summary.levels[level];

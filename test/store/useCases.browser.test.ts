@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import fieldGeoJson from '../reference/fixtures/imports/field-lonlat.geojson?raw';
 import noPrjUrl from '../reference/fixtures/imports/field-noprj.zip?url';
 import { ImportError } from '../../src/core/imports/index.ts';
-import { SiteFileError, tagKey } from '../../src/core/site/index.ts';
+import { tagKey } from '../../src/core/site/index.ts';
+import { siteFileText as exportHistoryText } from '../../src/core/export/siteFile.ts';
 import { SiteStore } from '../../src/store/SiteStore.ts';
 import { addPatch } from '../../src/app/site/addPatch.ts';
 import { backupSite, siteFileText } from '../../src/app/site/backupSite.ts';
@@ -125,7 +126,7 @@ describe('site use cases on real IndexedDB', () => {
     ctx.store.close();
     await SiteStore.remove(id);
 
-    await expect(restoreSite('backup.json', saved.data.replace('"species":"PICE"', '"species":"ALVI"'))).rejects.toThrow(SiteFileError);
+    await expect(restoreSite('backup.json', saved.data.replace('"species":"PICE"', '"species":"ALVI"'))).rejects.toThrow(/^backup\.json: its "tags" do not match its ledger/);
     const newer = JSON.stringify({ ...JSON.parse(saved.data), version: 99 });
     await expect(restoreSite('backup.json', newer)).rejects.toThrow(/^backup\.json: it was written by a newer Fellfield/);
     await expect(SiteStore.open(id)).rejects.toThrow(); // nothing was written by the refusals
@@ -135,6 +136,23 @@ describe('site use cases on real IndexedDB', () => {
     await expect(restoreSite('backup.json', saved.data)).rejects.toThrow(/already on this machine/);
     await restored.undo('ak', now());
     expect(restored.state.tags.size).toBe(0);
+    restored.close();
+    await SiteStore.remove(id);
+  });
+
+  it('restores the history an export writes beside its data as a whole site', async () => {
+    const ctx = await newSite();
+    const a = await addPatch(ctx, square(0, 0));
+    await tagPatch(ctx, { patchId: a.id, species: 'ALVI', confidence: 'likely', display });
+    const id = ctx.store.state.site!.id;
+    const before = snapshot(ctx.store);
+    const history = exportHistoryText(await ctx.store.ledger());
+    ctx.store.close();
+    await SiteStore.remove(id);
+    await expect(restoreSite('labels.site.json', history.replace('"species":"ALVI"', '"species":"PICE"'))).rejects.toThrow(/^labels\.site\.json: the history does not verify/);
+    const restored = await restoreSite('labels.site.json', history);
+    expect(snapshot(restored)).toEqual(before);
+    expect(await restored.verify()).toMatchObject({ ok: true });
     restored.close();
     await SiteStore.remove(id);
   });

@@ -5,6 +5,8 @@ import {
 } from '../../core/blind/index.ts';
 import { CONFIDENCES, isPaused, tagKey, type Confidence, type DisplaySettings, type Pass, type SiteState, type Tag } from '../../core/site/index.ts';
 import type { SiteWriter } from './siteWriter.ts';
+import type { MultiPolygonRings } from '../../core/geometry/types.ts';
+import { checkPatchGeometry } from '../site/geometryRules.ts';
 
 // Starting, tagging in and ending a blind pass. Every step is one ledger event; the
 // checks run again inside the commit, on the state at its turn, so two windows cannot
@@ -71,12 +73,17 @@ export async function startBlindPass(store: SiteWriter, selection: PatchSelectio
   return started!;
 }
 
-/** Starts an independent delineation: a blind pass asking for no patch, in which the interpreter draws their own. */
-export async function startDelineation(store: SiteWriter, actor: PassRequest): Promise<Pass> {
+/**
+ * Starts an independent delineation: a blind pass asking for no patch, in which the
+ * interpreter draws their own, within `area` when one is given (it is then compared
+ * within that area; see delineationSheet).
+ */
+export async function startDelineation(store: SiteWriter, actor: PassRequest, area?: MultiPolygonRings): Promise<Pass> {
+  if (area) checkPatchGeometry(area);
   let pass: Pass | null = null;
   await store.commitWith((state) => {
     refuseIfBusy(state, actor.interpreter);
-    pass = { id: newPassId(state, actor.interpreter, 'draw'), interpreter: actor.interpreter, blind: true, startedAt: actor.time, endedAt: null, patchIds: [] };
+    pass = { id: newPassId(state, actor.interpreter, 'draw'), interpreter: actor.interpreter, blind: true, startedAt: actor.time, endedAt: null, patchIds: [], ...(area ? { area } : {}) };
     return { kind: 'pass.started', payload: { pass }, actor: actor.by ?? actor.interpreter, time: actor.time };
   });
   return pass!;

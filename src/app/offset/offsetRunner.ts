@@ -1,5 +1,6 @@
 import { runOffsetJob, type OffsetJob, type OffsetJobResult, type OffsetProgress } from './offsetJob.ts';
 import type { OffsetWorkerReply } from './offset.worker.ts';
+import { callWorker, KEEP_LISTENING } from '../workerCall.ts';
 
 // Who runs the search: a worker in the app (the page stays responsive), the calling
 // thread in tests and scripts. Both run runOffsetJob.
@@ -33,35 +34,17 @@ export class WorkerOffsetRunner implements OffsetRunner {
     if (signal?.aborted) return Promise.reject(abortError());
     const worker = (this.#worker ??= new Worker(new URL('./offset.worker.ts', import.meta.url), { type: 'module', name: 'fellfield-offset' }));
     const id = this.#nextId++;
-    return new Promise<OffsetJobResult>((resolve, reject) => {
-      const stop = () => {
-        worker.removeEventListener('message', onMessage);
-        worker.removeEventListener('error', onError);
-        signal?.removeEventListener('abort', onAbort);
-      };
-      const onMessage = (event: MessageEvent<OffsetWorkerReply>) => {
-        const reply = event.data;
-        if (reply.id !== id) return;
-        if (reply.kind === 'progress') return onProgress(reply.progress);
-        stop();
-        if (reply.kind === 'done') resolve(reply.result);
-        else reject(new Error(reply.message));
-      };
-      const onError = (event: ErrorEvent) => {
-        stop();
-        this.#end();
-        reject(new Error(event.message || 'the shift estimate stopped unexpectedly'));
-      };
-      const onAbort = () => {
-        stop();
-        this.#end();
-        reject(abortError());
-      };
-      worker.addEventListener('message', onMessage);
-      worker.addEventListener('error', onError);
-      signal?.addEventListener('abort', onAbort, { once: true });
-      // The grid is copied, not transferred: the caller keeps it for the per-area step or a rerun.
-      worker.postMessage({ id, job });
+    // The grid is copied, not transferred: the caller keeps it for the per-area step or a rerun.
+    return callWorker<OffsetWorkerReply, OffsetJobResult>(worker, { id, job }, {
+      hear: (reply) => {
+        if (reply.id !== id) return KEEP_LISTENING;
+        if (reply.kind === 'progress') {
+          onProgress(reply.progress);
+          return KEEP_LISTENING;
+        }
+        return reply.kind === 'done' ? { done: true, value: reply.result } : { done: true, error: new Error(reply.message) };
+      },
+      signal, aborted: abortError, what: 'the shift estimate', onBroken: () => this.#end(),
     });
   }
 

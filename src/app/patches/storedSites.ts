@@ -2,7 +2,7 @@ import { listSites, type SiteListing } from '../../store/siteCatalogue.ts';
 import { DEMO_SITE_ID } from './openStoredDemo.ts';
 
 export interface StoredSiteEntry extends SiteListing {
-  /** the demo opens with its own imagery; other sites need theirs picked */
+  /** the demo opens with its own imagery; other sites ask for theirs */
   demo: boolean;
 }
 

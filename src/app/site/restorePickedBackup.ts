@@ -4,6 +4,7 @@ import { restoreSite } from './restoreSite.ts';
 
 /** A backup restored on this machine, told as the start page says it. */
 export interface RestoredBackup {
+  id: string;
   name: string;
   patches: number;
   events: number;
@@ -20,7 +21,7 @@ export async function restorePickedBackup(platform: Platform, options: { replace
   const text = await readText(platform, file, { maxBytes: 512 * 1024 * 1024 });
   const store = await restoreSite(file.name, text, options);
   try {
-    return { name: store.name, patches: store.state.patches.size, events: store.state.head.seq };
+    return { id: store.state.site?.id ?? '', name: store.name, patches: store.state.patches.size, events: store.state.head.seq };
   } finally {
     store.close();
   }

@@ -1,11 +1,18 @@
 import { readFileSync } from 'node:fs';
 import { FINDING_KINDS, type Finding, type FindingKind } from '../../core/checks/findings.ts';
 import { runChecks } from '../../core/checks/runChecks.ts';
-import type { CheckSettings, SceneGrids } from '../../core/checks/settings.ts';
+import { NoDataMask, readMasksFor } from '../../core/checks/noDataMask.ts';
+import type { PatchInput } from '../../core/checks/preparedPatch.ts';
+import { defaultSettings, type CheckSettings, type SceneGrids } from '../../core/checks/settings.ts';
 import { LabelFileError, readLabelFile } from '../../core/geojson/labelFile.ts';
-import { gridOfSummary, type RasterGrid } from '../../core/geometry/rasterGrid.ts';
+import { extentOfRings } from '../../core/geometry/measure.ts';
+import { gridOfSummary } from '../../core/geometry/rasterGrid.ts';
+import { vertexCount } from '../../core/geometry/validity.ts';
+import { isTiffError } from '../../core/tiff/errors.ts';
+import type { TiffSummary } from '../../core/tiff/inspectTiff.ts';
 import { InputError } from '../errors.ts';
 import { inspectInWorker } from '../inspectInWorker.ts';
+import { openFileRange } from '../readFileRange.ts';
 import { parseVerbArgs, type Verb } from '../verb.ts';
 
 const usage = `fellfield check PATCHES.geojson [--scene PAN.tif,MS.tif] [--json] [--fail-on KINDS]
@@ -19,12 +26,16 @@ Checks labelled patches for what would spoil a training set. Findings:
   mixed-tag       a patch tagged "mixed", or whose tags disagree
   undersized      area under --min-area-px multispectral pixels (default 2), or fewer
                   pure multispectral pixels than --min-pure (default 1; needs --scene)
-  off-image       outside the scene or across its edge (needs --scene)
+  off-image       outside the scene, across its edge, or over no-data pixels (needs
+                  --scene; no-data by the rasters' GDAL_NODATA tag or --nodata)
 
   --scene PAN.tif,MS.tif  the scene's panchromatic and multispectral GeoTIFFs (one file
                           serves as both); their grids set the sliver tolerance, pure
                           pixels and the image edge, and lon/lat input is measured in
                           their CRS
+  --nodata V              the scene rasters' no-data value (a number, or nan), over
+                          their GDAL_NODATA tag; a pixel is no-data when any band
+                          holds it. Only the blocks under the patches are read
   --fail-on KINDS         comma-separated kinds, or "all": exit 1 when any is found
   --epsg N                CRS of projected coordinates in a file without a "crs" member
   --sliver-m2 X           overlaps up to X m² are digitizing noise (default 0.1 of a
@@ -71,24 +82,57 @@ function failKinds(value: string | undefined): Set<FindingKind> {
   return new Set(names as FindingKind[]);
 }
 
-/** The grid of one scene raster, from its GeoTIFF header (read in a guarded worker). */
-async function rasterGrid(path: string): Promise<RasterGrid> {
+/** The header of one scene raster (read in a guarded worker), georeferenced with an EPSG code. */
+async function rasterSummary(path: string): Promise<TiffSummary> {
   const { summary } = await inspectInWorker(path, { check: 'none' });
   if (!summary.georeferenced) throw new InputError(`${path}: the GeoTIFF has no georeference, so it cannot place the patches`);
   if (summary.epsg === null) throw new InputError(`${path}: the GeoTIFF names no EPSG code for its CRS`);
-  return gridOfSummary(summary);
+  return summary;
 }
 
-async function readScene(value: string | undefined): Promise<{ scene: SceneGrids; epsg?: number }> {
-  if (value === undefined) return { scene: {} };
+interface SceneFiles {
+  scene: SceneGrids;
+  epsg?: number;
+  /** The distinct raster files with their headers, for the no-data check. */
+  rasters: { path: string; summary: TiffSummary }[];
+}
+
+async function readScene(value: string | undefined): Promise<SceneFiles> {
+  if (value === undefined) return { scene: {}, rasters: [] };
   const paths = value.split(',').map((s) => s.trim()).filter(Boolean);
   if (paths.length < 1 || paths.length > 2) throw new InputError(`--scene: expected PAN.tif,MS.tif (or one raster), got '${value}'`);
-  const pan = await rasterGrid(paths[0]);
-  const ms = paths.length === 2 ? await rasterGrid(paths[1]) : pan;
+  const rasters = [];
+  for (const path of new Set(paths)) rasters.push({ path, summary: await rasterSummary(path) });
+  const pan = gridOfSummary(rasters[0].summary);
+  const ms = gridOfSummary(rasters[rasters.length - 1].summary);
   if (pan.epsg !== ms.epsg) {
     throw new InputError(`${paths[1]}: its CRS (EPSG:${ms.epsg}) differs from ${paths[0]} (EPSG:${pan.epsg})`);
   }
-  return { scene: { pan, ms }, epsg: pan.epsg };
+  return { scene: { pan, ms }, epsg: pan.epsg, rasters };
+}
+
+/**
+ * Where the scene rasters hold no data, read for the blocks under the patches only.
+ * Patches past the vertex limit are not checked, so their boxes are not read.
+ */
+async function noDataMasks(rasters: SceneFiles['rasters'], patches: PatchInput[], override: number | undefined, maxVertices: number): Promise<NoDataMask[]> {
+  const masks: NoDataMask[] = [];
+  const extents = patches.filter((p) => vertexCount(p.rings) <= maxVertices).map((p) => extentOfRings(p.rings));
+  for (const { path, summary } of rasters) {
+    const mask = NoDataMask.of(summary, override);
+    if (!mask) continue;
+    const file = await openFileRange(path);
+    try {
+      await readMasksFor([{ mask, read: file.read }], extents);
+    } catch (error) {
+      if (isTiffError(error)) throw new InputError(error.message);
+      throw error;
+    } finally {
+      await file.close();
+    }
+    masks.push(mask);
+  }
+  return masks;
 }
 
 const round2 = (v: number) => Math.round(v * 100) / 100;
@@ -122,6 +166,7 @@ export const check: Verb = {
       'min-pure': { type: 'string' },
       'min-area-px': { type: 'string' },
       'max-vertices': { type: 'string' },
+      nodata: { type: 'string' },
       json: { type: 'boolean' },
     });
     if (positionals.length !== 1) throw new InputError(`expected one PATCHES.geojson, got ${positionals.length} file(s); see --help`);
@@ -135,9 +180,11 @@ export const check: Verb = {
       maxVertices: numberOption('max-vertices', values['max-vertices'], (n) => Number.isInteger(n) && n >= 4, 'a whole number of at least 4'),
     };
     const assumeEpsg = numberOption('epsg', values.epsg, (n) => Number.isInteger(n) && n > 0, 'an EPSG code');
+    const noDataValue = values.nodata?.trim().toLowerCase() === 'nan' ? NaN
+      : numberOption('nodata', values.nodata, () => true, 'a number or nan');
 
     const text = readText(file);
-    const { scene, epsg: sceneEpsg } = await readScene(values.scene);
+    const { scene, epsg: sceneEpsg, rasters } = await readScene(values.scene);
     let labels;
     try {
       labels = readLabelFile(text, file, { targetEpsg: sceneEpsg, assumeEpsg });
@@ -145,7 +192,9 @@ export const check: Verb = {
       if (error instanceof LabelFileError) throw new InputError(error.message);
       throw error;
     }
-    const report = runChecks(labels.patches, { settings, scene });
+    const maxVertices = settings.maxVertices ?? defaultSettings().maxVertices;
+    const noData = await noDataMasks(rasters, labels.patches, noDataValue, maxVertices);
+    const report = runChecks(labels.patches, { settings, scene: noData.length ? { ...scene, noData } : scene });
     if (values.json) {
       out.stdout(JSON.stringify({ file, crs: `EPSG:${labels.epsg}`, patches: labels.patches.length, ...report }));
     } else {

@@ -2,9 +2,10 @@ import {
   agreementSheet, alignById, delineationFigures, explainDelineation, explainFleiss, fleissKappa, matchByIou, ratingTable,
   type AgreementSheet, type DelineationFigures, type FleissKappa, type PairedCall,
 } from '../agreement/index.ts';
-import { extentOfRings } from '../geometry/measure.ts';
+import { extentOfRings, multiPolygonArea } from '../geometry/measure.ts';
+import { intersect } from '../geometry/overlay.ts';
 import type { Extent } from '../geometry/types.ts';
-import { RESERVED_CLASSES, type Pass, type SiteState, type Tag } from '../site/index.ts';
+import { RESERVED_CLASSES, type Pass, type Patch, type SiteState, type Tag } from '../site/index.ts';
 import { BLIND_ANSWERS } from './answers.ts';
 import { BlindError } from './BlindError.ts';
 import { isDelineationPass, patchesOfPass } from './blindView.ts';
@@ -94,8 +95,10 @@ export function passesFleiss(state: SiteState, passIds: readonly string[]): Pass
 export interface DelineationSheet {
   firstPassId: string;
   delineationPassId: string;
-  /** the area compared: the extent of the delineation's outlines */
+  /** the extent of the area compared */
   area: Extent;
+  /** what the area is: the one drawn when the delineation started, or the extent of its outlines */
+  within: 'drawn area' | 'outline extent';
   figures: DelineationFigures;
   explanations: ReturnType<typeof explainDelineation>;
   /** matched patch ids, first then second, with their IoU */
@@ -108,7 +111,8 @@ function meets(a: Extent, b: Extent): boolean {
 
 /**
  * Compares an independent delineation with the patches another pass called: the area
- * is the extent of the delineation's outlines, the first pass's patches meeting it are
+ * is the one drawn for the delineation (outlines cut at its edge) or else the extent of
+ * its outlines; the first pass's patches in it are
  * matched one-to-one by IoU (optimal assignment, matchByIou), and species agreement is
  * weighted by shared area.
  */
@@ -117,25 +121,33 @@ export function delineationSheet(state: SiteState, firstId: string, delineationI
   if (!isDelineationPass(delineation)) throw new BlindError(`Pass ${delineationId} is not an independent delineation.`);
   const drawn = patchesOfPass(state, delineation);
   if (drawn.length === 0) throw new BlindError(`No outline was drawn in delineation ${delineationId} yet.`);
-  const area = drawn.map((p) => extentOfRings(p.geometry)).reduce((a, e) => [Math.min(a[0], e[0]), Math.min(a[1], e[1]), Math.max(a[2], e[2]), Math.max(a[3], e[3])]);
+  // Within the area drawn for the delineation, every outline is cut at its edge; without
+  // one, the patches of the first pass meeting the extent of the drawn outlines count.
+  const region = delineation.area ?? null;
+  const area = region ? extentOfRings(region) : drawn.map((p) => extentOfRings(p.geometry)).reduce((a, e) => [Math.min(a[0], e[0]), Math.min(a[1], e[1]), Math.max(a[2], e[2]), Math.max(a[3], e[3])]);
+  const inArea = (p: Patch) => ({ id: p.id, rings: region ? intersect(p.geometry, region) : p.geometry });
+  const kept = (s: { rings: Patch['geometry'] }) => multiPolygonArea(s.rings) > 0;
   const firstTags = tagsOfPass(state, firstId);
   requirePass(state, firstId);
   const drawnIds = new Set(drawn.map((p) => p.id));
   const first = [...firstTags.keys()].map((id) => state.patches.get(id)!)
-    .filter((p) => !drawnIds.has(p.id) && meets(extentOfRings(p.geometry), area));
+    .filter((p) => !drawnIds.has(p.id) && meets(extentOfRings(p.geometry), area)).map(inArea).filter(kept);
+  const second = drawn.map(inArea).filter(kept);
+  if (second.length === 0) throw new BlindError(`No outline of delineation ${delineationId} lies in its area.`);
   const secondTags = tagsOfPass(state, delineationId);
-  const matching = matchByIou(first.map((p) => ({ id: p.id, rings: p.geometry })), drawn.map((p) => ({ id: p.id, rings: p.geometry })), { minIou });
+  const matching = matchByIou(first, second, { minIou });
   const figures = delineationFigures(
     matching,
     first.map((p) => firstTags.get(p.id)?.species ?? ''),
-    drawn.map((p) => secondTags.get(p.id)?.species ?? ''),
+    second.map((p) => secondTags.get(p.id)?.species ?? ''),
   );
   return {
     firstPassId: firstId,
     delineationPassId: delineationId,
     area,
+    within: region ? 'drawn area' : 'outline extent',
     figures,
     explanations: explainDelineation(figures),
-    pairs: matching.pairs.map((m) => ({ first: first[m.first].id, second: drawn[m.second].id, iou: m.iou })),
+    pairs: matching.pairs.map((m) => ({ first: first[m.first].id, second: second[m.second].id, iou: m.iou })),
   };
 }

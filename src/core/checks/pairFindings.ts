@@ -14,17 +14,20 @@ const percent = (share: number) => `${Math.round(share * 1000) / 10} %`;
 /** Hull gaps up to this (m) count as touching: rounding of UTM metres, far below any sliver. */
 const TOUCH_TOLERANCE = 1e-7;
 
+/** The answer for most pairs, shared (never changed by callers). */
+const NONE: Finding[] = Object.freeze([]) as unknown as Finding[];
+
 export function pairFindings(first: PreparedPatch, second: PreparedPatch, settings: CheckSettings): Finding[] {
-  if (!first.shape || !second.shape || !first.extent || !second.extent) return [];
-  const [a, b] = compareIds(first.input.id, second.input.id) <= 0 ? [first, second] : [second, first];
-  const ea = a.extent!, eb = b.extent!;
+  const ea = first.extent, eb = second.extent;
+  if (!ea || !eb || !first.shape || !second.shape) return NONE;
   const w = Math.min(ea[2], eb[2]) - Math.max(ea[0], eb[0]);
   const h = Math.min(ea[3], eb[3]) - Math.max(ea[1], eb[1]);
-  if (w <= 0 || h <= 0 || w * h <= settings.sliverAreaM2) return [];
-  if (hullsApart(hullOf(a), hullOf(b), TOUCH_TOLERANCE)) return [];
+  if (w <= 0 || h <= 0 || w * h <= settings.sliverAreaM2) return NONE;
+  const [a, b] = compareIds(first.input.id, second.input.id) <= 0 ? [first, second] : [second, first];
+  if (hullsApart(hullOf(a), hullOf(b), TOUCH_TOLERANCE)) return NONE;
 
-  const overlap = exactOverlap(jstsOf(a), jstsOf(b), a.shape!, b.shape!);
-  if (overlap.area <= settings.sliverAreaM2) return [];
+  const overlap = exactOverlap(a.shape!, b.shape!, () => jstsOf(a), () => jstsOf(b));
+  if (overlap.area <= settings.sliverAreaM2) return NONE;
 
   const ids = [a.input.id, b.input.id];
   const shares = [overlap.area / a.area, overlap.area / b.area];

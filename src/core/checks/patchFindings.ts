@@ -3,8 +3,12 @@ import { fromJsts, jstsPolygon } from '../geometry/jstsBridge.ts';
 import { multiPolygonArea } from '../geometry/measure.ts';
 import { countPurePixels } from '../geometry/purePixels.ts';
 import { gridExtent, type RasterGrid } from '../geometry/rasterGrid.ts';
-import type { Extent, MultiPolygonRings } from '../geometry/types.ts';
+import { singleRing } from '../geometry/exactOverlap.ts';
+import { ringOverlay } from '../geometry/ringOverlay.ts';
+import type { Extent, MultiPolygonRings, Ring } from '../geometry/types.ts';
 import type { Finding } from './findings.ts';
+import type { NoDataCover, NoDataMask } from './noDataMask.ts';
+import { middlePixelIsPure } from './pixelScreen.ts';
 import { jstsOf, type PreparedPatch } from './preparedPatch.ts';
 import type { CheckSettings, SceneGrids } from './settings.ts';
 
@@ -14,18 +18,13 @@ const round = (value: number, digits = 3) => Math.round(value * 10 ** digits) / 
 const percent = (share: number) => `${Math.round(share * 1000) / 10} %`;
 
 export function patchFindings(patch: PreparedPatch, settings: CheckSettings, scene: SceneGrids): Finding[] {
-  const out: Finding[] = [];
-  const invalid = invalidFinding(patch);
-  if (invalid) out.push(invalid);
-  const mixed = mixedTagFinding(patch, settings);
-  if (mixed) out.push(mixed);
-  if (patch.shape) {
-    const small = undersizedFinding(patch, settings, scene);
-    if (small) out.push(small);
-    const off = offImageFinding(patch, settings, scene);
-    if (off) out.push(off);
-  }
-  return out;
+  const found = [
+    invalidFinding(patch),
+    mixedTagFinding(patch, settings),
+    patch.shape ? undersizedFinding(patch, settings, scene) : null,
+    patch.shape ? offImageFinding(patch, settings, scene) : null,
+  ];
+  return found[0] || found[1] || found[2] || found[3] ? found.filter((f) => f !== null) : [];
 }
 
 function invalidFinding(patch: PreparedPatch): Finding | null {
@@ -58,10 +57,21 @@ function invalidFinding(patch: PreparedPatch): Finding | null {
   };
 }
 
+const mixedSets = new WeakMap<CheckSettings, Set<string>>();
+
+/** The "mixed" codes in lower case, made once per settings object. */
+function mixedCodeSet(settings: CheckSettings): Set<string> {
+  let set = mixedSets.get(settings);
+  if (!set) mixedSets.set(settings, (set = new Set(settings.mixedCodes.map((c) => c.toLowerCase()))));
+  return set;
+}
+
 function mixedTagFinding(patch: PreparedPatch, settings: CheckSettings): Finding | null {
   const { input } = patch;
+  const mixedCodes = mixedCodeSet(settings);
+  // Most patches carry one call that is not "mixed": nothing to build.
+  if (!input.tags?.length && !mixedCodes.has(input.species.trim().toLowerCase())) return null;
   const calls = [input.species, ...(input.tags ?? []).map((t) => t.species)].map((s) => s.trim());
-  const mixedCodes = new Set(settings.mixedCodes.map((c) => c.toLowerCase()));
   const taggedMixed = calls.some((c) => mixedCodes.has(c.toLowerCase()));
   const distinct = [...new Set(calls)].sort();
   if (!taggedMixed && distinct.length < 2) return null;
@@ -85,18 +95,22 @@ function undersizedFinding(patch: PreparedPatch, settings: CheckSettings, scene:
   const msArea = settings.msPixelSize * settings.msPixelSize;
   const minArea = settings.minAreaInMsPixels * msArea;
   let why: string | null = null;
-  const details: Record<string, number> = { areaM2: round(area), minAreaM2: round(minArea) };
+  let pure: number | null = null;
   if (area < minArea) {
     why = `covers ${round(area, 2)} m², under ${settings.minAreaInMsPixels} multispectral pixels (${round(minArea, 2)} m²)`;
-  } else if (scene.ms && settings.minPurePixels > 0 && overlapsGrid(patch, scene.ms)) {
-    const pure = countPurePixels(patch.shape!, scene.ms, settings.minPurePixels);
-    details.purePixels = pure;
-    details.minPurePixels = settings.minPurePixels;
+  } else if (scene.ms && settings.minPurePixels > 0 && overlapsGrid(patch, scene.ms)
+    && !(settings.minPurePixels === 1 && middlePixelIsPure(patch.shape!, scene.ms))) {
+    pure = countPurePixels(patch.shape!, scene.ms, settings.minPurePixels);
     if (pure < settings.minPurePixels) {
       why = `holds ${pure} pure multispectral pixel(s), fewer than ${settings.minPurePixels}`;
     }
   }
   if (!why) return null;
+  const details: Record<string, number> = { areaM2: round(area), minAreaM2: round(minArea) };
+  if (pure !== null) {
+    details.purePixels = pure;
+    details.minPurePixels = settings.minPurePixels;
+  }
   return {
     kind: 'undersized',
     patches: [input.id],
@@ -109,15 +123,24 @@ function undersizedFinding(patch: PreparedPatch, settings: CheckSettings, scene:
   };
 }
 
+const gridExtents = new WeakMap<RasterGrid, Extent>();
+
 /** Whether the patch's box meets the grid at all: off the grid, off-image says it all. */
 function overlapsGrid(patch: PreparedPatch, grid: RasterGrid): boolean {
-  const g = gridExtent(grid);
+  const g = gridExtents.get(grid) ?? gridExtents.set(grid, gridExtent(grid)).get(grid)!;
   const e = patch.extent!;
   return e[0] < g[2] && e[2] > g[0] && e[1] < g[3] && e[3] > g[1];
 }
 
 /** The rectangle every given raster covers (their intersection), or null with no scene. */
 export function sceneExtent(scene: SceneGrids): Extent | null {
+  if (!sceneExtents.has(scene)) sceneExtents.set(scene, extentOfScene(scene));
+  return sceneExtents.get(scene)!;
+}
+
+const sceneExtents = new WeakMap<SceneGrids, Extent | null>();
+
+function extentOfScene(scene: SceneGrids): Extent | null {
   const extents = [scene.pan, scene.ms].filter((g) => g !== undefined).map((g) => gridExtent(g));
   if (extents.length === 0) return null;
   return extents.reduce((a, b) => [Math.max(a[0], b[0]), Math.max(a[1], b[1]), Math.min(a[2], b[2]), Math.min(a[3], b[3])]);
@@ -128,13 +151,15 @@ function offImageFinding(patch: PreparedPatch, settings: CheckSettings, scene: S
   const e = patch.extent;
   if (!bounds || !e) return null;
   const { input, area } = patch;
-  if (e[0] >= bounds[0] && e[1] >= bounds[1] && e[2] <= bounds[2] && e[3] <= bounds[3]) return null;
+  if (e[0] >= bounds[0] && e[1] >= bounds[1] && e[2] <= bounds[2] && e[3] <= bounds[3]) return noDataFinding(patch, settings, scene);
   const disjoint = e[0] >= bounds[2] || e[2] <= bounds[0] || e[1] >= bounds[3] || e[3] <= bounds[1];
   let outside: MultiPolygonRings = patch.shape!;
   if (!disjoint) {
     const [x0, y0, x1, y1] = bounds;
-    const rectangle = jstsPolygon([[[x0, y0], [x1, y0], [x1, y1], [x0, y1], [x0, y0]]]);
-    outside = fromJsts(OverlayOp.difference(jstsOf(patch), rectangle));
+    const rectangle: Ring = [[x0, y0], [x1, y0], [x1, y1], [x0, y1], [x0, y0]];
+    const ring = singleRing(patch.shape!);
+    outside = (ring && ringOverlay(ring, rectangle, 'difference'))
+      ?? fromJsts(OverlayOp.difference(jstsOf(patch), jstsPolygon([rectangle])));
   }
   const outsideArea = disjoint ? area : multiPolygonArea(outside);
   if (!disjoint && outsideArea <= settings.sliverAreaM2) return null;
@@ -152,5 +177,34 @@ function offImageFinding(patch: PreparedPatch, settings: CheckSettings, scene: S
     fix: disjoint
       ? { action: 'move-inside', target: input.id, text: `check the CRS of patch ${input.id} or delete it: the scene does not show it` }
       : { action: 'move-inside', target: input.id, text: `clip patch ${input.id} to the scene edge` },
+  };
+}
+
+/** A patch inside the scene's edge that lies over no-data pixels, in part or whole. */
+function noDataFinding(patch: PreparedPatch, settings: CheckSettings, scene: SceneGrids): Finding | null {
+  if (!scene.noData?.length) return null;
+  const { input, area } = patch;
+  let worst: { mask: NoDataMask; cover: NoDataCover } | null = null;
+  for (const mask of scene.noData) {
+    const cover = mask.cover(patch.shape!, patch.extent!, area);
+    if (cover && (!worst || cover.areaM2 > worst.cover.areaM2)) worst = { mask, cover };
+  }
+  if (!worst || worst.cover.areaM2 <= settings.sliverAreaM2) return null;
+  const { mask, cover } = worst;
+  const wholly = cover.share >= 1 - 1e-9;
+  return {
+    kind: 'off-image',
+    patches: [input.id],
+    severity: wholly || cover.share > 0.5 ? 'error' : 'warning',
+    message: wholly
+      ? `patch ${input.id} lies wholly over no-data pixels of ${mask.fileName}`
+      : `patch ${input.id} lies partly over no-data pixels of ${mask.fileName}: ${round(cover.areaM2, 2)} m² (${percent(cover.share)})`,
+    area_m2: round(cover.areaM2),
+    shares: [round(cover.share, 4)],
+    geometry: null,
+    fix: wholly
+      ? { action: 'move-inside', target: input.id, text: `delete patch ${input.id} or check the scene: the image holds nothing there` }
+      : { action: 'move-inside', target: input.id, text: `redraw patch ${input.id} where the image holds data, or leave it out of training` },
+    details: { overNoData: true, raster: mask.fileName, noDataValue: String(mask.value) },
   };
 }

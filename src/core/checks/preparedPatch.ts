@@ -48,7 +48,7 @@ export function preparePatch(input: PatchInput, settings: CheckSettings): Prepar
   } else if (issues.every((issue) => issue.reason === 'repeated-point')) {
     shape = input.rings.map((rings) => rings.map((ring) => ring.filter((p, i) => i === 0 || !samePoint(p, ring[i - 1]))));
   } else {
-    repair = repairOutline(input.rings);
+    repair = repairOutline(input.rings, true);
     shape = repair.rings.length ? repair.rings : null;
   }
   const area = shape ? multiPolygonArea(shape) : 0;

@@ -1,4 +1,5 @@
 import type { RasterGrid } from '../geometry/rasterGrid.ts';
+import type { NoDataMask } from './noDataMask.ts';
 
 // Tolerances and thresholds of the checks, each with its default and why.
 
@@ -27,6 +28,11 @@ export interface CheckSettings {
 export interface SceneGrids {
   pan?: RasterGrid;
   ms?: RasterGrid;
+  /**
+   * Where the scene's rasters hold no data, for the rasters that have a no-data value.
+   * The blocks under every checked patch must be read first (see readMasksFor).
+   */
+  noData?: NoDataMask[];
 }
 
 /** Panchromatic pixel size assumed with no scene: 0.3 m, a current very-high-resolution sensor class. */

@@ -6,7 +6,9 @@ import { readSiteFile as readBackupFile, SITE_FILE_FORMAT as BACKUP_FORMAT, Site
 // The site file: a whole site as one JSON document, the hash-chained ledger with its
 // head. The current state is not stored beside it, because replaying the ledger gives it
 // and a stored copy could only disagree. One event per line keeps the file diffable.
-// (A first version for the command line; the store's backup may take it over.)
+// The app's backup (core/site/siteFile.ts) carries the same ledger with the current state
+// beside it; this reader takes both layouts, so an export's history restores as a site
+// and `fellfield export` reads a backup.
 
 export const SITE_FILE_KIND = 'fellfield site';
 export const SITE_FILE_VERSION = 1;
@@ -51,7 +53,7 @@ export async function readSiteFile(text: string, fileName: string): Promise<Open
     }
   }
   if (!doc || typeof doc !== 'object' || doc.kind !== SITE_FILE_KIND) {
-    throw new ExportError(`is not a Fellfield site file (expected "kind": "${SITE_FILE_KIND}")`, fileName);
+    throw new ExportError('is not a Fellfield site file (neither a backup saved by the app nor the history written beside an export)', fileName);
   }
   if (typeof doc.version !== 'number' || doc.version > SITE_FILE_VERSION) {
     throw new ExportError(`is a site file of version ${String(doc.version)}; this version reads up to ${SITE_FILE_VERSION}`, fileName);

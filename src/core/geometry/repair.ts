@@ -3,6 +3,7 @@ import Polygonizer from 'jsts/org/locationtech/jts/operation/polygonize/Polygoni
 import UnaryUnionOp from 'jsts/org/locationtech/jts/operation/union/UnaryUnionOp.js';
 import { factory, fromJsts, jstsLines, type JstsGeometry } from './jstsBridge.ts';
 import { multiPolygonArea, ringSignedArea } from './measure.ts';
+import { splitIntoLoops } from './ringLoops.ts';
 import { ringIsCollinear } from './segments.ts';
 import { validityIssues } from './validity.ts';
 import type { MultiPolygonRings, Position, Ring } from './types.ts';
@@ -58,20 +59,50 @@ function insideEvenOdd(p: Position, rings: Ring[]): boolean {
 
 /** Whether two of the faces (of one noded arrangement) have an edge in common. */
 function shareAnEdge(faces: JstsGeometry[]): boolean {
+  // Faces of one arrangement share an edge exactly: the same two noded positions.
   const seen = new Set<string>();
   for (const face of faces) {
-    const own = new Set<string>();
-    for (const { x, y } of face.getCoordinates() as { x: number; y: number }[]) own.add(`${x} ${y}`);
-    // Faces of one arrangement that share an edge share both its ends, so two shared
-    // vertices are the cheap sign; a false alarm only costs the union.
-    let common = 0;
-    for (const key of own) if (seen.has(key) && ++common >= 2) return true;
+    const coordinates = face.getCoordinates() as { x: number; y: number }[];
+    const own: string[] = [];
+    for (let i = 1; i < coordinates.length; i++) {
+      const p = coordinates[i - 1], q = coordinates[i];
+      const first = p.x < q.x || (p.x === q.x && p.y < q.y);
+      own.push(first ? `${p.x} ${p.y} ${q.x} ${q.y}` : `${q.x} ${q.y} ${p.x} ${p.y}`);
+    }
+    for (const key of own) if (seen.has(key)) return true;
     for (const key of own) seen.add(key);
   }
   return false;
 }
 
-export function repairOutline(parts: MultiPolygonRings): RepairResult {
+/**
+ * Repairs an outline. `brokenAsGiven` tells that the caller has already found the
+ * outline's topology broken, which spares testing it again when the clean-up changed nothing.
+ */
+/**
+ * Nodes all rings against each other and keeps the faces of the arrangement that lie
+ * inside their part by the even-odd rule; also counts the edges that enclose nothing.
+ */
+function rebuildFaces(cleaned: MultiPolygonRings): { rings: MultiPolygonRings; dangles: number } {
+  const noded: JstsGeometry = UnaryUnionOp.union(jstsLines(cleaned));
+  const polygonizer = new Polygonizer();
+  polygonizer.add(noded);
+  const faces: JstsGeometry[] = polygonizer.getPolygons().toArray();
+  const keep = faces.filter((face) => {
+    const c = new InteriorPointArea(face).getInteriorPoint();
+    return cleaned.some((rings) => insideEvenOdd([c.x, c.y], rings));
+  });
+  // Faces kept side by side along an edge must be merged; faces that meet at points at
+  // most (a bowtie's two lobes) already form a valid MultiPolygon, and the union, the
+  // costliest step, is skipped.
+  const merged = keep.length === 0 ? null
+    : keep.length === 1 || !shareAnEdge(keep) ? factory.createMultiPolygon(keep)
+      : UnaryUnionOp.union(factory.createMultiPolygon(keep));
+  const dangles = polygonizer.getDangles().size() + polygonizer.getCutEdges().size();
+  return { rings: merged ? fromJsts(merged) : [], dangles };
+}
+
+export function repairOutline(parts: MultiPolygonRings, brokenAsGiven = false): RepairResult {
   const changes: string[] = [];
   const areaBefore = Math.abs(parts.reduce((sum, rings) => sum + rings.reduce((s, r) => {
     const finite = r.filter(([x, y]) => Number.isFinite(x) && Number.isFinite(y));
@@ -90,29 +121,15 @@ export function repairOutline(parts: MultiPolygonRings): RepairResult {
     if (kept.length) cleaned.push(kept);
   });
   if (cleaned.length === 0) return { rings: [], changes, areaBefore, areaAfter: 0 };
+  const cleanedNothing = changes.length === 0;
 
-  // Node all rings against each other, then polygonize the arrangement into faces.
-  const noded: JstsGeometry = UnaryUnionOp.union(jstsLines(cleaned));
-  const polygonizer = new Polygonizer();
-  polygonizer.add(noded);
-  const faces: JstsGeometry[] = polygonizer.getPolygons().toArray();
-  const keep = faces.filter((face) => {
-    const c = new InteriorPointArea(face).getInteriorPoint();
-    return cleaned.some((rings) => insideEvenOdd([c.x, c.y], rings));
-  });
-  // Faces kept side by side along an edge must be merged; faces that meet at points at
-  // most (a bowtie's two lobes) already form a valid MultiPolygon, and the union, the
-  // costliest step, is skipped.
-  const merged = keep.length === 0 ? null
-    : keep.length === 1 || !shareAnEdge(keep) ? factory.createMultiPolygon(keep)
-      : UnaryUnionOp.union(factory.createMultiPolygon(keep));
-  const rings = merged ? fromJsts(merged) : [];
+  const single = cleanedNothing && cleaned.length === 1 && cleaned[0].length === 1 ? splitIntoLoops(cleaned[0][0]) : null;
+  const { rings, dangles } = single ? { rings: single, dangles: 0 } : rebuildFaces(cleaned);
   const areaAfter = multiPolygonArea(rings);
 
-  const dangles = polygonizer.getDangles().size() + polygonizer.getCutEdges().size();
   if (dangles > 0) changes.push(`removed ${dangles} edge(s) that enclose nothing (spikes or cut lines)`);
   // After the clean-up, was the topology itself broken? Then the rebuild is a change.
-  const stillBroken = validityIssues(cleaned).length > 0;
+  const stillBroken = brokenAsGiven && cleanedNothing ? true : validityIssues(cleaned).length > 0;
   if (rings.length !== cleaned.length) {
     changes.push(`rebuilt the outline from its crossing edges: ${cleaned.length} part(s) became ${rings.length}`);
   } else if (stillBroken) {

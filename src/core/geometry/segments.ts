@@ -42,21 +42,66 @@ export function determinantEpsilon(ring: Ring): number {
 }
 
 /**
+ * A quick sufficient test for most drawn crowns: seen from the mean of its vertices,
+ * every edge turns the same way (beyond rounding) and the ring goes round once. Then
+ * each ray from that point meets the ring once, so the ring is simple (star-shaped).
+ * O(n); false only means "not shown this way".
+ */
+export function ringIsStarAroundMean(ring: Ring, eps: number = determinantEpsilon(ring)): boolean {
+  const m = ring.length - 1;
+  if (m < 3) return false;
+  let cx = 0, cy = 0;
+  for (let i = 0; i < m; i++) {
+    cx += ring[i][0];
+    cy += ring[i][1];
+  }
+  cx /= m;
+  cy /= m;
+  let turn = 0;
+  let rounds = 0;
+  let px = ring[0][0] - cx, py = ring[0][1] - cy;
+  for (let i = 1; i <= m; i++) {
+    const qx = ring[i][0] - cx, qy = ring[i][1] - cy;
+    // Twice the signed area of c, p, q (as orient() does, within the same allowance).
+    const o = px * qy - py * qx;
+    const sign = o > eps ? 1 : o < -eps ? -1 : 0;
+    if (sign === 0 || (turn !== 0 && sign !== turn)) return false;
+    turn = sign;
+    // Going round counter-clockwise, an edge passes the ray east of c upward (clockwise:
+    // downward); count those passes with half-open ends, so a vertex on the ray counts once.
+    if (turn > 0 ? py < 0 && qy >= 0 : py >= 0 && qy < 0) rounds++;
+    px = qx;
+    py = qy;
+  }
+  return rounds === 1;
+}
+
+/**
  * True when a closed ring without repeated consecutive points is certainly simple:
  * no two non-adjacent edges touch and no two adjacent edges fold back on each other.
- * False means "not certain" (the caller asks JSTS). O(n^2), meant for small rings.
+ * False means "not certain" (the caller asks JSTS). Edges are swept in order of their
+ * west end, so only edges whose x ranges meet are paired; meant for small rings.
  */
 export function ringIsCertainlySimple(ring: Ring): boolean {
   const m = ring.length - 1; // edges
   const eps = determinantEpsilon(ring);
+  if (ringIsStarAroundMean(ring, eps)) return true;
+  const minX = new Float64Array(m), maxX = new Float64Array(m);
+  const order = new Array<number>(m);
   for (let i = 0; i < m; i++) {
-    const a = ring[i], b = ring[i + 1];
-    const minX = Math.min(a[0], b[0]), maxX = Math.max(a[0], b[0]);
-    const minY = Math.min(a[1], b[1]), maxY = Math.max(a[1], b[1]);
-    for (let j = i + 1; j < m; j++) {
-      const c = ring[j], d = ring[j + 1];
-      if (Math.max(c[0], d[0]) < minX || Math.min(c[0], d[0]) > maxX
-        || Math.max(c[1], d[1]) < minY || Math.min(c[1], d[1]) > maxY) continue;
+    const a = ring[i][0], b = ring[i + 1][0];
+    minX[i] = a < b ? a : b;
+    maxX[i] = a < b ? b : a;
+    order[i] = i;
+  }
+  order.sort((p, q) => minX[p] - minX[q]);
+  for (let k = 0; k < m; k++) {
+    const first = order[k];
+    for (let l = k + 1; l < m && minX[order[l]] <= maxX[first]; l++) {
+      const second = order[l];
+      const i = first < second ? first : second, j = first < second ? second : first;
+      const a = ring[i], b = ring[i + 1], c = ring[j], d = ring[j + 1];
+      if (Math.max(c[1], d[1]) < Math.min(a[1], b[1]) || Math.min(c[1], d[1]) > Math.max(a[1], b[1])) continue;
       const adjacent = j === i + 1 || (i === 0 && j === m - 1);
       if (!adjacent) {
         if (segmentsTouch(a, b, c, d, eps)) return false;

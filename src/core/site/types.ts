@@ -104,6 +104,11 @@ export interface Pass {
   endedAt: string | null;
   /** the patches asked for in a blind pass; null when the pass covers everything */
   patchIds: string[] | null;
+  /**
+   * An independent delineation's area to delineate (site CRS metres), fixed when the
+   * pass starts; absent, the delineation is compared within the extent of its outlines.
+   */
+  area?: MultiPolygonRings;
   /** when the pass was held and taken up again, oldest first; absent until its first pause */
   pauses?: PausePeriod[];
 }

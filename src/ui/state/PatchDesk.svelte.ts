@@ -44,6 +44,8 @@ export class PatchDesk {
   notice = $state<string | null>(null);
   /** the outline being drawn or edited, measured live */
   sketch = $state<OutlineMeasure | null>(null);
+  /** an area drawn for a delineation not yet started, shown on the map */
+  pendingArea = $state.raw<MultiPolygonRings | null>(null);
   /** bumped to ask the panel to focus its note or jump field */
   noteRequests = $state(0);
   jumpRequests = $state(0);
@@ -51,6 +53,7 @@ export class PatchDesk {
   #tags: Map<string, Tag[]> = tagsByPatch(emptySiteState());
   #order: string[] = [];
   #pending = 0;
+  #capture: ((geometry: MultiPolygonRings) => void) | null = null;
   #store: SiteStore;
   #options: PatchDeskOptions;
   #unsubscribe: () => void;
@@ -145,6 +148,7 @@ export class PatchDesk {
       return;
     }
     this.tool = this.tool === tool ? 'select' : tool;
+    this.#capture = null; // a tool chosen by hand ends any request for an outline
     this.sketch = null;
     this.notice = null;
     this.#changed();
@@ -155,7 +159,27 @@ export class PatchDesk {
     this.#changed();
   }
 
+  /**
+   * Takes the next outline drawn on the map for something other than a patch (the area of
+   * a delineation): the draw tool is switched on, and the outline goes to `take`.
+   */
+  captureOutline(take: (geometry: MultiPolygonRings) => void, notice: string): void {
+    this.#capture = take;
+    this.tool = 'draw';
+    this.notice = notice;
+    this.#changed();
+  }
+
   add(geometry: MultiPolygonRings): Promise<void> {
+    const take = this.#capture;
+    if (take) {
+      this.#capture = null;
+      this.tool = 'select';
+      this.notice = null;
+      this.#changed();
+      take(geometry);
+      return Promise.resolve();
+    }
     return this.#save(async () => {
       const id = await addPatch(this.#store, geometry, this.#actor());
       this.select(id);

@@ -42,34 +42,45 @@ export class Workspace {
   }
 
   openDemo(): Promise<void> {
-    return this.#open('Opening the demo site', (onProgress, signal) => this.#openers.demo(onProgress, signal));
+    return this.openWith('Opening the demo site', (onProgress, signal) => this.#openers.demo(onProgress, signal));
   }
 
   /** Asks for one or two GeoTIFFs and opens them as a scene. */
   openFiles(): Promise<void> {
-    return this.#open('Opening the picked files', (onProgress, signal) => this.#openers.files(onProgress, signal));
+    return this.openWith('Opening the picked files', (onProgress, signal) => this.#openers.files(onProgress, signal));
   }
 
-  async #open(label: string, opener: Opener): Promise<void> {
+  /** Opens a site by any opener (a new site, a stored one, a blind package), with progress and cancel. */
+  async openWith(label: string, opener: Opener): Promise<void> {
+    const site = await this.run(label, opener);
+    if (site === null) return; // cancelled, refused (see error) or backed out of
+    this.site?.dispose();
+    this.site = site;
+    this.screen = 'desk';
+    this.surface = 'desk';
+    this.errand = null;
+  }
+
+  /**
+   * Runs long work with the progress bar and its Cancel. Resolves to null when cancelled
+   * or refused (the refusal is in `error`); a result that comes after a cancel is let go.
+   */
+  async run<T extends object>(label: string, work: (onProgress: (p: Progress) => void, signal: AbortSignal) => Promise<T | null>): Promise<T | null> {
     this.cancel();
     const abort = new AbortController();
     this.#abort = abort;
     this.error = null;
     this.progress = { label, fraction: null };
     try {
-      const site = await opener((p) => (this.progress = p), abort.signal);
-      if (site === null) return; // the user cancelled the picker
-      if (abort.signal.aborted) {
-        site.dispose();
-        return;
+      const result = await work((p) => (this.progress = p), abort.signal);
+      if (result !== null && abort.signal.aborted) {
+        (result as { dispose?(): void }).dispose?.();
+        return null;
       }
-      this.site?.dispose();
-      this.site = site;
-      this.screen = 'desk';
-      this.surface = 'desk';
-      this.errand = null;
+      return result;
     } catch (error) {
       if (!abort.signal.aborted) this.error = (error as Error).message;
+      return null;
     } finally {
       if (this.#abort === abort) {
         this.#abort = null;

@@ -87,6 +87,43 @@ describe('delineationSheet', () => {
     expect(d.figures.unmatchedFirst).toBe(1);
     expect(d.figures.unmatchedSecond).toBe(1);
     expect(d.figures.areaWeightedAgreement.value).toBe(1); // both called P1/B1 ABFI
+    expect(d.within).toBe('outline extent');
     expect(() => delineationSheet(b.state, 'a', 'a')).toThrow(/not an independent delineation/);
+  });
+
+  // Areas and IoUs below are worked by hand on axis-aligned squares (plain arithmetic).
+  async function delineationIn(area: [number, number, number, number]) {
+    const b = await blindSite();
+    const [x0, y0, x1, y1] = area;
+    const rings = [[[[x0, y0], [x1, y0], [x1, y1], [x0, y1], [x0, y0]]]] as [number, number][][][];
+    await startPass(b, { id: 'draw', interpreter: 'ben', blind: true, patchIds: [], area: rings });
+    const add = (id: string, x: number) => b.commit({ kind: 'patch.added', payload: { patch: { id, geometry: square(x, 4429000, 6), source: { kind: 'drawn' }, createdAt: b.time(), createdBy: 'ben' }, tags: [] } }, 'ben');
+    await add('B1', 493021);
+    await add('B2', 493044);
+    await b.tag('B1', 'draw', 'ABFI', 'ben');
+    await b.tag('B2', 'draw', 'SAIN', 'ben');
+    return delineationSheet(b.state, 'a', 'draw');
+  }
+
+  it('compares within the area drawn for the delineation, leaving out what lies outside it', async () => {
+    // The area holds P1 (x 493020-493026) and B1 (493021-493027), not P2 or B2 (x >= 493040).
+    const d = await delineationIn([493015, 4428990, 493030, 4429010]);
+    expect(d.within).toBe('drawn area');
+    expect(d.area).toEqual([493015, 4428990, 493030, 4429010]);
+    expect(d.pairs).toEqual([{ first: 'P1', second: 'B1', iou: expect.closeTo(30 / 42, 12) }]);
+    expect(d.figures.firstCount).toBe(1);
+    expect(d.figures.unmatchedFirst).toBe(0);
+    expect(d.figures.unmatchedSecond).toBe(0);
+  });
+
+  it('cuts outlines at the edge of the area before matching', async () => {
+    // Cut at x = 493024: P1 keeps 4 x 6 = 24 m², B1 keeps 3 x 6 = 18 m², all of it inside
+    // P1's part, so IoU = 18 / 24.
+    const d = await delineationIn([493015, 4428990, 493024, 4429010]);
+    expect(d.pairs).toEqual([{ first: 'P1', second: 'B1', iou: expect.closeTo(0.75, 9) }]);
+  });
+
+  it('says so when no outline of the delineation lies in its area', async () => {
+    await expect(delineationIn([493100, 4428990, 493110, 4429010])).rejects.toThrow(/No outline of delineation draw lies in its area/);
   });
 });

@@ -1,0 +1,51 @@
+import type { RasterGrid } from '../geometry/rasterGrid.ts';
+import type { MultiPolygonRings } from '../geometry/types.ts';
+
+// A quick, certain test that a patch holds at least one pure pixel: the grid pixel under
+// the middle of its outer ring lies wholly inside when no edge comes near that pixel's
+// footprint and the footprint's centre is inside. "No" only means "not shown this way":
+// the exact coverage (src/core/pixels/coverage.ts) then counts.
+
+/** Edges this close to a footprint (share of the pixel size) count as touching it. */
+const MARGIN = 1e-6;
+
+/** Whether the pixel under the vertex mean of the first outer ring is certainly pure. */
+export function middlePixelIsPure(shape: MultiPolygonRings, grid: RasterGrid): boolean {
+  const outer = shape[0]?.[0];
+  if (!outer || outer.length < 4) return false;
+  let mx = 0, my = 0;
+  const m = outer.length - 1;
+  for (let i = 0; i < m; i++) {
+    mx += outer[i][0];
+    my += outer[i][1];
+  }
+  const { originX: ox, originY: oy, pixelWidth: pw, pixelHeight: ph } = grid;
+  const col = Math.floor((mx / m - ox) / pw);
+  const row = Math.floor((oy - my / m) / ph);
+  if (!(col >= 0 && col < grid.width && row >= 0 && row < grid.height)) return false;
+  const gap = MARGIN * Math.max(pw, ph);
+  const x0 = ox + col * pw - gap, x1 = ox + (col + 1) * pw + gap;
+  const y1 = oy - row * ph + gap, y0 = oy - (row + 1) * ph - gap;
+  const cx = (x0 + x1) / 2, cy = (y0 + y1) / 2;
+  let inside = false;
+  for (const rings of shape) {
+    for (const ring of rings) {
+      for (let i = 1; i < ring.length; i++) {
+        const ax = ring[i - 1][0], ay = ring[i - 1][1], bx = ring[i][0], by = ring[i][1];
+        // An edge whose box meets the grown footprint, with corners on both sides of
+        // its line (or on it), may cross the footprint: not certain.
+        if (!(Math.max(ax, bx) < x0 || Math.min(ax, bx) > x1 || Math.max(ay, by) < y0 || Math.min(ay, by) > y1)) {
+          const dx = bx - ax, dy = by - ay;
+          const s0 = dx * (y0 - ay) - dy * (x0 - ax);
+          const s1 = dx * (y0 - ay) - dy * (x1 - ax);
+          const s2 = dx * (y1 - ay) - dy * (x0 - ax);
+          const s3 = dx * (y1 - ay) - dy * (x1 - ax);
+          if (!((s0 > 0 && s1 > 0 && s2 > 0 && s3 > 0) || (s0 < 0 && s1 < 0 && s2 < 0 && s3 < 0))) return false;
+        }
+        // Even-odd crossing along the ray east of the footprint's centre.
+        if ((ay > cy) !== (by > cy) && cx < ax + ((cy - ay) * (bx - ax)) / (by - ay)) inside = !inside;
+      }
+    }
+  }
+  return inside;
+}
