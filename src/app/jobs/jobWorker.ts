@@ -1,3 +1,5 @@
+import { callWorker, KEEP_LISTENING } from '../workerCall.ts';
+
 // Pure computations away from the UI thread: a worker answers one job per message,
 // matched by id, with the result or the error's message; buffers travel transferred.
 // The page side is a JobWorker made with the worker's URL (written where Vite can see
@@ -41,18 +43,19 @@ export function serveJobs<J, R>(work: (job: J) => R, transfer: (result: R) => Tr
 }
 
 /**
- * One worker, made on first use. A cancelled job is let go at once; when it was the
- * only one running, the worker is ended (that is what stops the work) and the next job
- * makes a new one.
+ * One worker, made on first use, called through callWorker (src/app/workerCall.ts). A
+ * cancelled call ends the worker (that is what stops the work) and with it every other
+ * call still waiting, which then rejects as cancelled too; the next call makes a new one.
  */
 export class JobWorker<J, R> implements JobRunner<J, R> {
   #worker: Worker | null = null;
   #nextId = 1;
-  #pending = new Map<number, { resolve: (r: R) => void; reject: (e: Error) => void }>();
+  /** one per call still waiting, so ending the worker can end each of them */
+  #waiting = new Set<AbortController>();
 
   /**
    * @param make makes the worker: `() => new Worker(new URL('./x.worker.ts', import.meta.url), { type: 'module' })`
-   * @param what what the work is, for messages ("the species spectra")
+   * @param what what the work is, for messages ("working out the species spectra")
    * @param transfer buffers of a job to hand over rather than copy
    */
   constructor(
@@ -61,53 +64,40 @@ export class JobWorker<J, R> implements JobRunner<J, R> {
     private readonly transfer: (job: J) => Transferable[] = () => [],
   ) {}
 
-  run(job: J, signal?: AbortSignal): Promise<R> {
-    if (signal?.aborted) return Promise.reject(abortError(this.what));
-    const worker = (this.#worker ??= this.#start());
+  async run(job: J, signal?: AbortSignal): Promise<R> {
+    if (signal?.aborted) throw abortError(this.what);
+    const worker = (this.#worker ??= this.make());
     const id = this.#nextId++;
-    return new Promise<R>((resolve, reject) => {
-      const onAbort = () => {
-        this.#pending.delete(id);
-        if (this.#pending.size === 0) this.#end();
-        reject(abortError(this.what));
-      };
-      signal?.addEventListener('abort', onAbort, { once: true });
-      this.#pending.set(id, {
-        resolve: (r) => { signal?.removeEventListener('abort', onAbort); resolve(r); },
-        reject: (e) => { signal?.removeEventListener('abort', onAbort); reject(e); },
+    const call = new AbortController();
+    const follow = () => call.abort();
+    signal?.addEventListener('abort', follow, { once: true });
+    this.#waiting.add(call);
+    try {
+      return await callWorker<JobReply<R>, R>(worker, { id, job }, {
+        hear: (reply) => {
+          if (reply.id !== id) return KEEP_LISTENING;
+          return reply.kind === 'done' ? { done: true, value: reply.result } : { done: true, error: new Error(reply.message) };
+        },
+        signal: call.signal,
+        aborted: () => abortError(this.what),
+        what: this.what,
+        onBroken: () => this.#end(),
+        transfer: this.transfer(job),
       });
-      worker.postMessage({ id, job }, this.transfer(job));
-    });
-  }
-
-  #start(): Worker {
-    const worker = this.make();
-    worker.addEventListener('message', (event: MessageEvent<JobReply<R>>) => {
-      const reply = event.data;
-      const waiting = this.#pending.get(reply.id);
-      if (!waiting) return;
-      this.#pending.delete(reply.id);
-      if (reply.kind === 'done') waiting.resolve(reply.result);
-      else waiting.reject(new Error(reply.message));
-    });
-    worker.addEventListener('error', (event: ErrorEvent) => {
-      const failed = [...this.#pending.values()];
-      this.#pending.clear();
-      this.#end();
-      for (const w of failed) w.reject(new Error(event.message || `${this.what} stopped unexpectedly`));
-    });
-    return worker;
+    } finally {
+      signal?.removeEventListener('abort', follow);
+      this.#waiting.delete(call);
+    }
   }
 
   #end(): void {
-    this.#worker?.terminate();
+    const worker = this.#worker;
     this.#worker = null;
+    worker?.terminate();
+    for (const call of [...this.#waiting]) call.abort();
   }
 
   dispose(): void {
-    const left = [...this.#pending.values()];
-    this.#pending.clear();
     this.#end();
-    for (const w of left) w.reject(abortError(this.what));
   }
 }
