@@ -20,7 +20,7 @@ import type { PixelRuleChoice } from '../state/PixelRuleChoice.svelte.ts';
 
 export type Preset = 'species' | 'conifers' | 'target';
 export const PRESETS: { id: Preset; label: string }[] = [
-  { id: 'species', label: 'every species its own class' },
+  { id: 'species', label: 'all species, each its own class' },
   { id: 'conifers', label: 'conifers by species, the rest as other' },
   { id: 'target', label: 'one species against the rest' },
 ];
