@@ -6,7 +6,7 @@ import { join } from 'node:path';
 // fresh on-disk profile: an in-memory (incognito) profile would ignore quota overrides.
 export default defineConfig({
   test: {
-    include: ['test/store/**/*.browser.test.ts'],
+    include: ['test/store/**/*.browser.test.ts', 'test/platform/**/*.browser.test.ts', 'test/imagery/**/*.browser.test.ts', 'test/app/**/*.browser.test.ts'],
     testTimeout: 60_000,
     fileParallelism: false,
     browser: {

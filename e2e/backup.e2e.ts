@@ -4,28 +4,13 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { openApp, screenshot } from './browser.ts';
+import { deskReady, tagNextPatch } from './deskSteps.ts';
 
 // Backup and restore as a user does it: tag a patch, save the site as one file (Ctrl+S),
 // restore the file in another browser profile (another machine), open it and find the
 // call; a changed file is refused with a message naming it.
 
 const dir = mkdtempSync(join(tmpdir(), 'fellfield-backup-'));
-
-async function deskReady(page: Page) {
-  await page.waitForSelector('[data-testid="map"][data-ready="true"]', { timeout: 60_000 });
-  await page.waitForSelector('text=All saved', { timeout: 60_000 });
-}
-
-/** Takes the next untagged patch in hand and calls it PIEX (key 2), unsure (K); returns its id. */
-async function tagNextPatch(page: Page): Promise<string> {
-  await page.keyboard.press('u');
-  const id = (await page.locator('[data-testid="patch-in-hand"] .id b').textContent())!;
-  await page.keyboard.press('2');
-  await page.keyboard.press('k');
-  await expect.poll(() => page.locator('.side').innerText(), { timeout: 20_000 }).toMatch(/PIEX, unsure/);
-  await page.waitForSelector('text=All saved', { timeout: 20_000 });
-  return id;
-}
 
 async function restore(page: Page, path: string) {
   const chooser = page.waitForEvent('filechooser');

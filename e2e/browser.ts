@@ -27,7 +27,7 @@ export interface Session {
 }
 
 /** A persistent profile in a fresh folder: real IndexedDB, kept across a relaunch when asked. */
-export async function openApp(options: { profile?: string; path?: string } = {}): Promise<Session> {
+export async function openApp(options: { profile?: string; path?: string; initScript?: () => void } = {}): Promise<Session> {
   const profile = options.profile ?? mkdtempSync(join(tmpdir(), 'fellfield-e2e-'));
   const context = await chromium.launchPersistentContext(profile, {
     executablePath: chromiumPath,
@@ -35,6 +35,7 @@ export async function openApp(options: { profile?: string; path?: string } = {})
     args: chromiumArgs,
     viewport: { width: 1280, height: 800 },
   });
+  if (options.initScript) await context.addInitScript(options.initScript);
   const page = context.pages()[0] ?? (await context.newPage());
   const problems: string[] = [];
   page.on('pageerror', (error) => problems.push(error.message));

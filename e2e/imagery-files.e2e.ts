@@ -2,25 +2,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { openApp, screenshot, type Session } from './browser.ts';
 import { layerCanvasStats } from './canvasStats.ts';
-import { writeGeoTiff } from '../src/core/tiff/writeGeoTiff.ts';
+import { stripedPan } from './stripedPan.ts';
 
 // A user's own striped GeoTIFF without overviews: read once into the pyramid cache (in
 // the page's IndexedDB, by the render workers) and shown on the map.
 
 let session: Session;
 let page: Page;
-
-function stripedPan(size: number): Buffer {
-  const band = new Uint16Array(size * size);
-  for (let i = 0; i < band.length; i++) {
-    const x = i % size, y = Math.floor(i / size);
-    band[i] = 300 + Math.round(200 * Math.sin(x / 40) * Math.cos(y / 25)) + ((x * 7 + y * 3) % 50);
-  }
-  return Buffer.from(writeGeoTiff({
-    width: size, height: size, sampleType: 'uint16', bands: [band], epsg: 32633, origin: [500000, 5000000],
-    pixelSize: [0.5, 0.5], compression: 'lzw', stripped: true, overviewFactors: [],
-  }));
-}
 
 describe('a striped file of the user', () => {
   beforeAll(async () => {

@@ -1,9 +1,10 @@
 import { execFileSync } from 'node:child_process';
-import { closeSync, existsSync, fsyncSync, mkdirSync, mkdtempSync, openSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createAppFilesHandlers } from '../electron/app-files.ts';
 import { killAllLaunched, launchKillable, type KillableBrowser } from './harness/chromium.ts';
 import { startHarnessServer } from './harness/server.ts';
 
@@ -40,17 +41,13 @@ async function openHarness(b: KillableBrowser, reported: Reported[], copyDir: st
   const context = b.browser.contexts()[0];
   const page = await context.newPage();
   await page.exposeBinding('reportSaved', (_source, r: Reported) => void reported.push(r));
-  // the copy on disk as the desktop shell writes it: temporary name, flush, rename
-  await page.exposeBinding('copyWrite', (_source, name: string, text: string) => {
-    const final = join(copyDir, name);
-    const temporary = `${final}.partial`;
-    writeFileSync(temporary, text);
-    const fd = openSync(temporary, 'r+');
-    fsyncSync(fd);
-    closeSync(fd);
-    renameSync(temporary, final);
+  // the copy on disk written by the desktop shell's own handlers: temporary name, fsync, rename
+  const files = createAppFilesHandlers(copyDir);
+  await page.exposeBinding('copyWrite', async (_source, name: string, text: string) => void (await files.appFileWrite({ name, data: text })));
+  await page.exposeBinding('copyRead', async (_source, name: string) => {
+    const bytes = await files.appFileRead({ name });
+    return bytes === null ? null : new TextDecoder().decode(bytes);
   });
-  await page.exposeBinding('copyRead', (_source, name: string) => (existsSync(join(copyDir, name)) ? readFileSync(join(copyDir, name), 'utf8') : null));
   await page.goto(server.url);
   await page.waitForFunction(() => document.getElementById('status')?.textContent === 'ready', undefined, { timeout: 60_000 });
   return page;

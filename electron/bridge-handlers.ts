@@ -2,13 +2,15 @@
 // dialogs, the handle registry, the demo folder), so tests drive them with real files.
 // `createBridgeRouter` adds the sender check and turns every failure into data.
 
-import { open, stat, writeFile } from 'node:fs/promises';
+import { stat, writeFile } from 'node:fs/promises';
 import type { BridgeResult, ChannelKey, Response } from '../src/platform/channels.ts';
 import { CHANNELS, MAX_RANGE_BYTES } from '../src/platform/channels.ts';
 import { PlatformError } from '../src/platform/errors.ts';
-import { checkRangeArguments, clampRangeEnd } from '../src/platform/range.ts';
+import { checkRangeArguments } from '../src/platform/range.ts';
 import type { FileRef } from '../src/platform/types.ts';
+import { createAppFilesHandlers } from './app-files.ts';
 import { findDemoFile } from './policy/demo-lookup.ts';
+import { readFileRange } from './read-file-range.ts';
 import type { FileHandleRegistry } from './policy/file-handles.ts';
 import { parseDemoFile, parsePickOptions, parseReadRange, parseSaveFile } from './policy/payloads.ts';
 import { checkSender, type FrameIdentity } from './policy/sender.ts';
@@ -27,12 +29,16 @@ export interface BridgeDependencies {
   showOpenDialog(request: OpenDialogRequest): Promise<string[]>;
   /** Shows the save dialog; resolves to the chosen absolute path, undefined when cancelled. */
   showSaveDialog(suggestedName: string): Promise<string | undefined>;
+  /** The folder of the app's own files (see electron/app-files.ts). */
+  appFilesDir: string;
 }
 
 export type BridgeHandlers = { [K in ChannelKey]: (payload: unknown) => Promise<Response<K>> };
 
 export function createBridgeHandlers(deps: BridgeDependencies): BridgeHandlers {
   return {
+    ...createAppFilesHandlers(deps.appFilesDir),
+
     async pickFiles(payload) {
       const options = parsePickOptions(payload);
       const paths = await deps.showOpenDialog({ title: options.title, extensions: options.extensions, multiple: options.multiple === true });
@@ -50,26 +56,7 @@ export function createBridgeHandlers(deps: BridgeDependencies): BridgeHandlers {
       const handle = deps.registry.get(request.id);
       const name = handle.ref.name;
       checkRangeArguments(request.offset, request.length, name, MAX_RANGE_BYTES);
-      let file;
-      try {
-        file = await open(handle.path, 'r');
-      } catch {
-        throw new PlatformError('not-found', 'can no longer be opened (moved or deleted?)', name);
-      }
-      try {
-        const { size } = await file.stat();
-        const end = clampRangeEnd(size, request.offset, request.length, name);
-        const bytes = new Uint8Array(end - request.offset);
-        let filled = 0;
-        while (filled < bytes.length) {
-          const { bytesRead } = await file.read(bytes, filled, bytes.length - filled, request.offset + filled);
-          if (bytesRead === 0) break;
-          filled += bytesRead;
-        }
-        return filled === bytes.length ? bytes : bytes.slice(0, filled);
-      } finally {
-        await file.close();
-      }
+      return readFileRange(handle.path, request.offset, request.length, name);
     },
 
     async saveFile(payload) {

@@ -7,6 +7,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { CHANNELS, type ChannelKey } from '../src/platform/channels.ts';
 import { createAppProtocolHandler } from './app-protocol.ts';
+import { appFilesDir, sweepPartials } from './app-files.ts';
 import { createBridgeHandlers, createBridgeRouter } from './bridge-handlers.ts';
 import { APP_ENTRY_URL, APP_SCHEME, mayLoad, mayNavigate, windowOpenDecision } from './policy/app-origin.ts';
 import { FileHandleRegistry } from './policy/file-handles.ts';
@@ -28,6 +29,7 @@ protocol.registerSchemesAsPrivileged([
 app.enableSandbox();
 
 let mainWindow: BrowserWindow | undefined;
+const ownFiles = appFilesDir(app.getPath('userData'));
 const registry = new FileHandleRegistry();
 
 function frameIdentity(frame: WebFrameMain | null | undefined): FrameIdentity | undefined {
@@ -41,6 +43,7 @@ function frameIdentity(frame: WebFrameMain | null | undefined): FrameIdentity | 
 function installBridge(): void {
   const handlers = createBridgeHandlers({
     registry,
+    appFilesDir: ownFiles,
     demoDir, // a missing folder is reported on first use, with the command that makes it
     async showOpenDialog(request) {
       if (!mainWindow) return [];
@@ -119,12 +122,15 @@ function createWindow(): void {
 app.on('web-contents-created', (_event, contents) => guardContents(contents));
 app.on('window-all-closed', () => app.quit());
 
-void app.whenReady().then(() => {
+void app.whenReady().then(async () => {
   if (!existsSync(path.join(bundleDir, 'index.html'))) {
     dialog.showErrorBox('Fellfield', `The app is not built: ${path.join(bundleDir, 'index.html')} is missing. Run \`npm run build\`.`);
     app.quit();
     return;
   }
+  // Writes cut short by a crash left temporary files; the files they were replacing are whole.
+  const swept = await sweepPartials(ownFiles);
+  if (swept.length) log(`removed ${swept.length} unfinished write(s) from ${ownFiles}`);
   installSessionPolicy();
   installBridge();
   createWindow();

@@ -1,4 +1,4 @@
-// The preload of the sandboxed renderer: it exposes exactly the four bridge calls of
+// The preload of the sandboxed renderer: it exposes exactly the bridge calls of
 // src/platform/channels.ts and nothing of ipcRenderer itself. Built to one CommonJS
 // file (dist-electron/preload.cjs), since a sandboxed preload can require only 'electron'.
 
@@ -10,6 +10,10 @@ const bridge: BridgeApi = {
   readRange: (request) => ipcRenderer.invoke(CHANNELS.readRange, request),
   saveFile: (request) => ipcRenderer.invoke(CHANNELS.saveFile, request),
   openDemoFile: (request) => ipcRenderer.invoke(CHANNELS.openDemoFile, request),
+  appFileWrite: (request) => ipcRenderer.invoke(CHANNELS.appFileWrite, request),
+  appFileRead: (request) => ipcRenderer.invoke(CHANNELS.appFileRead, request),
+  appFileList: (request) => ipcRenderer.invoke(CHANNELS.appFileList, request),
+  appFileRemove: (request) => ipcRenderer.invoke(CHANNELS.appFileRemove, request),
 };
 
 contextBridge.exposeInMainWorld(BRIDGE_GLOBAL, bridge);

@@ -2,8 +2,13 @@
 // shapes its types promise. Each parser returns the typed request or throws a
 // 'bad-request' PlatformError that says which field is wrong.
 
-import type { DemoFileRequest, ReadRangeRequest, SaveFileRequest } from '../../src/platform/channels.ts';
+import { checkAppFileName } from '../../src/platform/app-file-name.ts';
+import {
+  MAX_APP_FILE_BYTES, MAX_RANGE_BYTES, type AppFileNameRequest, type AppFileReadRequest, type AppFileWriteRequest,
+  type DemoFileRequest, type ReadRangeRequest, type SaveFileRequest,
+} from '../../src/platform/channels.ts';
 import { PlatformError } from '../../src/platform/errors.ts';
+import { checkRangeArguments } from '../../src/platform/range.ts';
 import type { PickOptions } from '../../src/platform/types.ts';
 
 const EXTENSION = /^[A-Za-z0-9]{1,16}$/;
@@ -58,4 +63,37 @@ export function parseDemoFile(value: unknown): DemoFileRequest {
   const v = record(value, 'demo request');
   if (typeof v.name !== 'string') bad('demo request: name must be a string');
   return { name: v.name };
+}
+
+export function parseAppFileName(value: unknown): AppFileNameRequest {
+  const v = record(value, 'app file request');
+  return { name: checkAppFileName(v.name) };
+}
+
+export function parseAppFileWrite(value: unknown): AppFileWriteRequest {
+  const v = record(value, 'app file write');
+  const name = checkAppFileName(v.name);
+  const data = v.data;
+  if (typeof data === 'string') {
+    if (data.length > MAX_APP_FILE_BYTES / 3) bad(`app file write: the text of ${name} is too long to write in one go`);
+  } else if (data instanceof Uint8Array) {
+    if (data.byteLength > MAX_APP_FILE_BYTES) bad(`app file write: ${name} is too large to write in one go`);
+  } else {
+    bad('app file write: data must be text or bytes');
+  }
+  return { name, data };
+}
+
+export function parseAppFileRead(value: unknown): AppFileReadRequest {
+  const v = record(value, 'app file read');
+  const name = checkAppFileName(v.name);
+  if (v.offset === undefined && v.length === undefined) return { name };
+  if (typeof v.offset !== 'number' || typeof v.length !== 'number') bad('app file read: offset and length must both be numbers, or both absent');
+  checkRangeArguments(v.offset, v.length, name, MAX_RANGE_BYTES);
+  return { name, offset: v.offset, length: v.length };
+}
+
+export function parseNothing(value: unknown): Record<string, never> {
+  if (value !== undefined && value !== null && Object.keys(record(value, 'request')).length > 0) bad('this request takes no fields');
+  return {};
 }

@@ -2,7 +2,7 @@ import type { Platform } from '../platform/types.ts';
 import { createRenderPool } from '../imagery/renderPool.ts';
 import type { Raster } from '../imagery/Raster.ts';
 import { openForViewing } from '../imagery/pyramidCache.ts';
-import { indexedDbTileStore } from '../imagery/tileStore.ts';
+import { tileStoreFor } from '../imagery/tileStore.ts';
 import { multispectralView, panchromaticView } from './sceneView.ts';
 import type { BandInfo, FieldPolygons, OpenSite, RosterEntry, SceneView } from './site.ts';
 
@@ -39,6 +39,7 @@ export async function openDemoSite(platform: Platform, options: OpenOptions = {}
   if (manifest.kind !== 'fellfield demo manifest') throw new Error('manifest.json: not a Fellfield demo manifest');
 
   const pool = createRenderPool();
+  const tiles = tileStoreFor(platform);
   try {
     const scenes: SceneView[] = [];
     const steps = manifest.dates.length * 2 + 2;
@@ -48,9 +49,9 @@ export async function openDemoSite(platform: Platform, options: OpenOptions = {}
       const msName = manifest.files.find((f) => f.date === date && f.role.startsWith('multispectral'))?.name;
       if (!panName || !msName) throw new Error(`manifest.json: the scene of ${date} lacks a panchromatic or multispectral file`);
       onProgress({ label: `Opening ${panName}`, fraction: ++step / steps });
-      const pan = await openForViewing(platform, pool, await platform.openDemoFile(panName), indexedDbTileStore, { signal, onProgress });
+      const pan = await openForViewing(platform, pool, await platform.openDemoFile(panName), tiles, { signal, onProgress });
       onProgress({ label: `Opening ${msName}`, fraction: ++step / steps });
-      const ms = await openForViewing(platform, pool, await platform.openDemoFile(msName), indexedDbTileStore, { signal, onProgress });
+      const ms = await openForViewing(platform, pool, await platform.openDemoFile(msName), tiles, { signal, onProgress });
       scenes.push(await sceneView(date, pan, ms, manifest.bands, signal));
     }
     onProgress({ label: 'Reading the roster and field polygons', fraction: ++step / steps });

@@ -2,7 +2,7 @@ import { bandTableFor, bandTableProblem } from '../core/bandTable.ts';
 import { createRenderPool } from '../imagery/renderPool.ts';
 import { Raster, type RangeReader } from '../imagery/Raster.ts';
 import { viewable } from '../imagery/pyramidCache.ts';
-import { indexedDbTileStore } from '../imagery/tileStore.ts';
+import { tileStoreFor, type TileStore } from '../imagery/tileStore.ts';
 import { urlReader } from '../imagery/urlSource.ts';
 import type { FileRef } from '../platform/types.ts';
 import { multispectralView, panchromaticView } from './sceneView.ts';
@@ -13,6 +13,8 @@ export interface OpenFilesOptions {
   signal?: AbortSignal;
   /** a render pool to share (a site of two dates); the caller disposes it. Default: one of its own. */
   pool?: ReturnType<typeof createRenderPool>;
+  /** Where pyramid caches are kept. Default: the platform's app files on disk where it has them, else IndexedDB (tileStoreFor). */
+  tileStore?: () => Promise<TileStore | null>;
 }
 
 /**
@@ -36,7 +38,7 @@ export async function openImageryFiles(platform: RangeReader, files: FileRef[], 
           problems.push(`${file.name}: has no usable georeferencing (CRS and geotransform), so it cannot be placed on the map`);
           continue;
         }
-        const raster = await viewable(opened, indexedDbTileStore, { signal, onProgress });
+        const raster = await viewable(opened, options.tileStore ?? tileStoreFor(platform), { signal, onProgress });
         await raster.bandLimits(0, 2, 98, signal); // decodes a small level: a broken file shows itself now
         rasters.push(raster);
       } catch (error) {

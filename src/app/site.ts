@@ -3,6 +3,7 @@ import type { Raster } from '../imagery/Raster.ts';
 import type { StretchLimits } from '../core/render/stretch.ts';
 import type { BandEntry as BandInfo } from '../core/bandTable.ts';
 import type { SiteStore } from '../store/SiteStore.ts';
+import type { DiskCopySession } from './site/diskCopySession.ts';
 
 // The site in hand, as the screens see it.
 
@@ -39,5 +40,7 @@ export interface OpenSite {
   notes?: string[];
   /** The stored site (patches, tags, ledger) when the imagery belongs to one. */
   store?: SiteStore;
+  /** The copy of the stored site on disk, kept while it is open (see app/site/diskCopySession.ts). */
+  diskCopy?: DiskCopySession;
   dispose(): void;
 }

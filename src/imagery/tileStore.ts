@@ -1,5 +1,9 @@
-// Where pyramid caches keep their tiles: IndexedDB in the app (the platform bridge has no
-// place on disk for them yet), memory in tests and benchmarks.
+import type { AppFiles } from '../platform/types.ts';
+import { DiskTileStore } from './diskTileStore.ts';
+
+// Where pyramid caches keep their tiles: on disk among the app's own files where the
+// platform has them (Electron's data folder, a folder granted in a browser), else in
+// IndexedDB; memory in tests and benchmarks.
 
 export interface TileStore {
   get(key: string): Promise<ArrayBuffer | undefined>;
@@ -47,5 +51,23 @@ export async function indexedDbTileStore(): Promise<TileStore | null> {
       for (const [key, value] of entries) store.put(value, key);
       await done(tx);
     },
+  };
+}
+
+const diskStores = new WeakMap<AppFiles, DiskTileStore>();
+
+/**
+ * The tile store to open for a reader: the app's files on disk when it is a platform that
+ * has them (one store per folder, shared by every raster), else IndexedDB.
+ */
+export function tileStoreFor(reader: object): () => Promise<TileStore | null> {
+  const platform = reader as { appFiles?: () => Promise<AppFiles | null> };
+  if (typeof platform.appFiles !== 'function') return indexedDbTileStore;
+  return async () => {
+    const files = await platform.appFiles!().catch(() => null);
+    if (!files) return indexedDbTileStore();
+    let store = diskStores.get(files);
+    if (!store) diskStores.set(files, (store = new DiskTileStore(files)));
+    return store;
   };
 }

@@ -1,12 +1,14 @@
 // The bridge in a plain browser: picked files are File objects kept behind opaque ids,
 // demo files are read from the serving origin by HTTP ranges, saving is a download
-// (or the File System Access API where the browser has it).
+// (or the File System Access API where the browser has it), and the app's own files go
+// to a folder the user grants where the browser has a folder picker.
 
 import { demoNameSegments } from './demo-name.ts';
 import { PlatformError, throwIfAborted } from './errors.ts';
+import { BrowserFolderGrant, type DirectoryPicker } from './folder-grant.ts';
 import { fetchRange, fetchSize, type FetchLike } from './http-range.ts';
 import { checkRangeArguments, clampRangeEnd } from './range.ts';
-import type { FileRef, PickOptions, Platform } from './types.ts';
+import type { AppFiles, FileRef, PickOptions, Platform } from './types.ts';
 
 export interface BrowserPlatformOptions {
   /** Base URL of the demo folder. Default: `./demo/` beside the page. */
@@ -15,6 +17,8 @@ export interface BrowserPlatformOptions {
   fetch?: FetchLike;
   /** The document that hosts the file input and download link. Default: the global document. */
   document?: Document;
+  /** The folder picker. Default: the browser's showDirectoryPicker, when it has one. */
+  directoryPicker?: DirectoryPicker;
 }
 
 type Entry = { kind: 'picked'; file: Blob; ref: FileRef } | { kind: 'demo'; url: string; ref: FileRef };
@@ -30,11 +34,20 @@ export class BrowserPlatform implements Platform {
   readonly #demoBaseUrl: string | undefined;
   readonly #fetch: FetchLike;
   readonly #document: Document | undefined;
+  readonly folderGrant: BrowserFolderGrant | null;
 
   constructor(options: BrowserPlatformOptions = {}) {
     this.#demoBaseUrl = options.demoBaseUrl;
     this.#fetch = options.fetch ?? ((input, init) => fetch(input, init));
     this.#document = options.document ?? (typeof document === 'undefined' ? undefined : document);
+    const scope = globalThis as { showDirectoryPicker?: DirectoryPicker };
+    const picker = options.directoryPicker ?? (scope.showDirectoryPicker ? (o) => scope.showDirectoryPicker!(o) : undefined);
+    this.folderGrant = picker ? new BrowserFolderGrant(picker) : null;
+  }
+
+  /** The granted folder's files; null until the user grants one (or where there is no folder picker). */
+  async appFiles(): Promise<AppFiles | null> {
+    return (await this.folderGrant?.files()) ?? null;
   }
 
   /** Registers a File (or Blob with a name) as if the user had picked it, e.g. after a drop. */

@@ -4,7 +4,7 @@
 // process boundary as plain data, because Electron flattens thrown errors to text.
 
 import type { PlatformErrorCode } from './errors.ts';
-import type { FileRef, PickOptions } from './types.ts';
+import type { AppFileInfo, FileRef, PickOptions } from './types.ts';
 
 /** Channel names, one per bridge call. */
 export const CHANNELS = {
@@ -12,6 +12,10 @@ export const CHANNELS = {
   readRange: 'fellfield:read-range',
   saveFile: 'fellfield:save-file',
   openDemoFile: 'fellfield:open-demo-file',
+  appFileWrite: 'fellfield:app-file-write',
+  appFileRead: 'fellfield:app-file-read',
+  appFileList: 'fellfield:app-file-list',
+  appFileRemove: 'fellfield:app-file-remove',
 } as const;
 
 export type ChannelKey = keyof typeof CHANNELS;
@@ -31,12 +35,32 @@ export interface DemoFileRequest {
   name: string;
 }
 
+export interface AppFileWriteRequest {
+  name: string;
+  data: Uint8Array | string;
+}
+
+export interface AppFileReadRequest {
+  name: string;
+  /** Absent: the whole file. */
+  offset?: number;
+  length?: number;
+}
+
+export interface AppFileNameRequest {
+  name: string;
+}
+
 /** Request and response payload of each channel. */
 export interface ChannelPayloads {
   pickFiles: { request: PickOptions; response: FileRef[] };
   readRange: { request: ReadRangeRequest; response: Uint8Array };
   saveFile: { request: SaveFileRequest; response: boolean };
   openDemoFile: { request: DemoFileRequest; response: FileRef };
+  appFileWrite: { request: AppFileWriteRequest; response: null };
+  appFileRead: { request: AppFileReadRequest; response: Uint8Array | null };
+  appFileList: { request: Record<string, never>; response: AppFileInfo[] };
+  appFileRemove: { request: AppFileNameRequest; response: null };
 }
 
 export type Request<K extends ChannelKey> = ChannelPayloads[K]['request'];
@@ -60,3 +84,6 @@ export const BRIDGE_GLOBAL = 'fellfieldBridge';
 
 /** The largest single range read, so one request cannot ask for a whole scene at once. */
 export const MAX_RANGE_BYTES = 64 * 1024 * 1024;
+
+/** The largest app file written or read whole in one call (a site copy, a pack of tiles). */
+export const MAX_APP_FILE_BYTES = 1024 * 1024 * 1024;

@@ -3,15 +3,24 @@
 
 import type { BridgeApi, BridgeResult } from './channels.ts';
 import { PlatformError, throwIfAborted } from './errors.ts';
+import { checkAppFileName } from './app-file-name.ts';
 import { checkRangeArguments } from './range.ts';
-import type { FileRef, PickOptions, Platform } from './types.ts';
+import type { AppFileInfo, AppFiles, FileRef, PickOptions, Platform } from './types.ts';
 
 export class ElectronPlatform implements Platform {
   readonly kind = 'electron';
+  /** The desktop app always has its own folder; there is nothing to grant. */
+  readonly folderGrant = null;
   readonly #bridge: BridgeApi;
+  readonly #files: AppFiles;
 
   constructor(bridge: BridgeApi) {
     this.#bridge = bridge;
+    this.#files = new BridgeAppFiles(bridge);
+  }
+
+  async appFiles(): Promise<AppFiles> {
+    return this.#files;
   }
 
   async pickFiles(options: PickOptions): Promise<FileRef[]> {
@@ -34,6 +43,34 @@ export class ElectronPlatform implements Platform {
 
   async openDemoFile(name: string): Promise<FileRef> {
     return unwrap(await this.#bridge.openDemoFile({ name }));
+  }
+}
+
+/** The app's files in its data folder, written and read by the main process. */
+class BridgeAppFiles implements AppFiles {
+  readonly where = "the app's data folder";
+  readonly #bridge: BridgeApi;
+
+  constructor(bridge: BridgeApi) {
+    this.#bridge = bridge;
+  }
+
+  async write(name: string, data: Uint8Array | string): Promise<void> {
+    unwrap(await this.#bridge.appFileWrite({ name: checkAppFileName(name), data }));
+  }
+
+  async read(name: string, range?: { offset: number; length: number }): Promise<Uint8Array | null> {
+    if (range) checkRangeArguments(range.offset, range.length, name);
+    const bytes = unwrap(await this.#bridge.appFileRead({ name: checkAppFileName(name), ...range }));
+    return bytes === null || bytes instanceof Uint8Array ? bytes : new Uint8Array(bytes);
+  }
+
+  async list(): Promise<AppFileInfo[]> {
+    return unwrap(await this.#bridge.appFileList({}));
+  }
+
+  async remove(name: string): Promise<void> {
+    unwrap(await this.#bridge.appFileRemove({ name: checkAppFileName(name) }));
   }
 }
 

@@ -8,6 +8,7 @@ export type PlatformErrorCode =
   | 'out-of-range' // the requested bytes start past the end of the file
   | 'refused' // the request came from somewhere that may not ask
   | 'io' // the operating system or the network failed the read
+  | 'full' // the disk (or the browser's storage quota) has no room for a write
   | 'aborted'; // the caller's AbortSignal fired
 
 export class PlatformError extends Error {

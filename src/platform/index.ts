@@ -6,7 +6,7 @@ import { BrowserPlatform } from './browser.ts';
 import { ElectronPlatform } from './electron.ts';
 import type { Platform } from './types.ts';
 
-export type { FileRef, PickOptions, Platform } from './types.ts';
+export type { AppFileInfo, AppFiles, FileRef, FolderGrant, FolderState, PickOptions, Platform } from './types.ts';
 export { PlatformError, type PlatformErrorCode } from './errors.ts';
 export { readWholeFile, readText } from './read-whole.ts';
 

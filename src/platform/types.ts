@@ -17,6 +17,56 @@ export interface PickOptions {
   multiple?: boolean;
 }
 
+/** One of the app's own files: its plain name, size in bytes and last write (ms since 1970). */
+export interface AppFileInfo {
+  name: string;
+  size: number;
+  modified: number;
+}
+
+/**
+ * The app's own files (the copies of its sites, its pyramid caches) in a folder of its
+ * own: in Electron a folder under the app's data folder, in a browser a folder the user
+ * granted. Names follow checkAppFileName (src/platform/app-file-name.ts): no folders.
+ */
+export interface AppFiles {
+  /** Where the files are kept, in words for the user (e.g. 'the folder "Fellfield copies"'). */
+  readonly where: string;
+  /**
+   * Replaces (or creates) a file atomically: a reader finds the old content or the new,
+   * never a mix, and a failed write (a full disk) leaves the old content as it was.
+   */
+  write(name: string, data: Uint8Array | string): Promise<void>;
+  /** The file's bytes, or `length` bytes from `offset` (cut at the end); null when there is no such file. */
+  read(name: string, range?: { offset: number; length: number }): Promise<Uint8Array | null>;
+  /** Every file of the app's, in no particular order. */
+  list(): Promise<AppFileInfo[]>;
+  /** Removes a file; nothing happens when it is not there. */
+  remove(name: string): Promise<void>;
+}
+
+/** What the browser lets the app do with the folder the user chose for its files. */
+export type FolderState =
+  | { state: 'none' } // no folder chosen yet (or the choice was lost with the browser's storage)
+  | { state: 'ask'; name: string } // chosen before; the browser wants the user's leave again
+  | { state: 'ready'; name: string };
+
+/**
+ * In a plain browser, the folder the user grants through the File System Access API for
+ * the app's files. Choosing and allowing again open the browser's own prompts, so they
+ * must be called from a click.
+ */
+export interface FolderGrant {
+  /** Where things stand now (the choice is kept in the browser's storage between visits). */
+  state(): Promise<FolderState>;
+  /** Shows the folder picker; resolves to the new state (unchanged when the user cancels). */
+  choose(): Promise<FolderState>;
+  /** Asks again for leave to write to the folder chosen before. */
+  allowAgain(): Promise<FolderState>;
+  /** The folder's files when it is 'ready', else null. */
+  files(): Promise<AppFiles | null>;
+}
+
 export interface Platform {
   readonly kind: 'electron' | 'browser';
   /** Asks the user for files; resolves to [] when the user cancels. */
@@ -30,4 +80,11 @@ export interface Platform {
   saveFile(suggestedName: string, data: Uint8Array | string): Promise<boolean>;
   /** A file of the generated demo site by name, e.g. 'manifest.json' or 'pan.tif'. */
   openDemoFile(name: string): Promise<FileRef>;
+  /**
+   * The app's own files, or null where there is no place for them yet (a browser whose
+   * user has not granted a folder, or that has no File System Access API).
+   */
+  appFiles(): Promise<AppFiles | null>;
+  /** The folder grant of a plain browser with the File System Access API; null elsewhere. */
+  readonly folderGrant: FolderGrant | null;
 }

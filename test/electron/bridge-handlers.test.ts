@@ -46,6 +46,7 @@ function harness(overrides: Partial<BridgeDependencies> = {}): Harness {
   const handlers = createBridgeHandlers({
     registry,
     demoDir,
+    appFilesDir: path.join(tmp, 'app-files'),
     showOpenDialog: async () => { dialogs.opened++; return dialogs.nextPick; },
     showSaveDialog: async () => { dialogs.opened++; return dialogs.nextSave; },
     ...overrides,
@@ -169,7 +170,7 @@ describe('the sender check on every channel', () => {
   });
 
   it('refuses everything once the window is closed', async () => {
-    const handlers = createBridgeHandlers({ registry: new FileHandleRegistry(), demoDir, showOpenDialog: async () => [], showSaveDialog: async () => undefined });
+    const handlers = createBridgeHandlers({ registry: new FileHandleRegistry(), demoDir, appFilesDir: path.join(tmp, 'app-files'), showOpenDialog: async () => [], showSaveDialog: async () => undefined });
     const route = createBridgeRouter({ handlers, mainFrame: () => undefined });
     expect(await route('openDemoFile', MAIN, { name: 'manifest.json' })).toMatchObject({ ok: false, error: { code: 'refused' } });
   });

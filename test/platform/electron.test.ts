@@ -23,6 +23,7 @@ function bridgeFrom(sender: FrameIdentity, pick: string[]): BridgeApi {
   const handlers = createBridgeHandlers({
     registry: new FileHandleRegistry(),
     demoDir: path.join(tmp, 'demo'),
+    appFilesDir: path.join(tmp, 'app-files'),
     showOpenDialog: async () => pick,
     showSaveDialog: async (name) => path.join(tmp, name),
   });
@@ -77,6 +78,21 @@ describe('the Electron platform', () => {
     const read = p.readRange({ id: 'x', name: 'pan.tif', size: 3000 }, 0, 10, controller.signal);
     controller.abort();
     await expect(read).rejects.toMatchObject({ code: 'aborted', file: 'pan.tif' });
+  });
+
+  it('keeps the app files in its own folder: write, read, list, remove, and names refused before any call', async () => {
+    const p = new ElectronPlatform(bridgeFrom(MAIN, []));
+    expect(p.folderGrant).toBeNull();
+    const files = (await p.appFiles())!;
+    await files.write('demo.site.json', '{"a":1}');
+    await files.write('pyr-1.tiles', new Uint8Array([5, 6, 7]));
+    expect(new TextDecoder().decode((await files.read('demo.site.json'))!)).toBe('{"a":1}');
+    expect(await files.read('pyr-1.tiles', { offset: 1, length: 5 })).toEqual(new Uint8Array([6, 7]));
+    expect(await files.read('none.json')).toBeNull();
+    expect((await files.list()).map((f) => f.name).sort()).toEqual(['demo.site.json', 'pyr-1.tiles']);
+    await files.remove('pyr-1.tiles');
+    expect((await files.list()).map((f) => f.name)).toEqual(['demo.site.json']);
+    await expect(files.write('../x', 'x')).rejects.toMatchObject({ code: 'bad-request' });
   });
 
   it('saves through the save dialog', async () => {

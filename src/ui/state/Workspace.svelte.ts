@@ -35,10 +35,13 @@ export class Workspace {
   error = $state<string | null>(null);
 
   #openers: SiteOpeners;
+  #adopt: (site: OpenSite) => Promise<OpenSite>;
   #abort: AbortController | null = null;
 
-  constructor(openers: SiteOpeners) {
+  /** `adopt` takes every site once opened, e.g. to keep its copy on disk (default: as it is). */
+  constructor(openers: SiteOpeners, options: { adopt?: (site: OpenSite) => Promise<OpenSite> } = {}) {
     this.#openers = openers;
+    this.#adopt = options.adopt ?? (async (site) => site);
   }
 
   openDemo(): Promise<void> {
@@ -52,8 +55,9 @@ export class Workspace {
 
   /** Opens a site by any opener (a new site, a stored one, a blind package), with progress and cancel. */
   async openWith(label: string, opener: Opener): Promise<void> {
-    const site = await this.run(label, opener);
-    if (site === null) return; // cancelled, refused (see error) or backed out of
+    const opened = await this.run(label, opener);
+    if (opened === null) return; // cancelled, refused (see error) or backed out of
+    const site = await this.#adopt(opened);
     this.site?.dispose();
     this.site = site;
     this.screen = 'desk';
