@@ -18,11 +18,19 @@ export interface Progress {
   fraction: number | null;
 }
 
+/** A patch sent from another page to the desk (to split or reshape it), and the page to go back to. */
+export interface DeskErrand {
+  patchId: string;
+  from: Surface;
+}
+
 /** What the window shows and the site in hand. Components read it and call its methods. */
 export class Workspace {
   screen = $state<Screen>('start');
   /** Which page of the open site is shown. */
   surface = $state<Surface>('desk');
+  /** The patch another page sent to the desk, while the desk works on it. */
+  errand = $state.raw<DeskErrand | null>(null);
   site = $state.raw<OpenSite | null>(null);
   progress = $state<Progress | null>(null);
   error = $state<string | null>(null);
@@ -68,6 +76,7 @@ export class Workspace {
     this.site = site;
     this.screen = 'desk';
     this.surface = 'desk';
+    this.errand = null;
   }
 
   /**
@@ -99,6 +108,24 @@ export class Workspace {
         this.progress = null;
       }
     }
+  }
+
+  /** Shows a page of the open site; leaving the desk ends an errand there. */
+  show(surface: Surface): void {
+    this.surface = surface;
+    if (surface !== 'desk') this.errand = null;
+  }
+
+  /** Opens the desk with a patch in hand, to come back to `from` afterwards. */
+  sendToDesk(patchId: string, from: Surface): void {
+    this.errand = { patchId, from };
+    this.surface = 'desk';
+  }
+
+  /** Back to the page that sent the errand. */
+  endErrand(): void {
+    const errand = this.errand;
+    if (errand) this.show(errand.from);
   }
 
   cancel(): void {
