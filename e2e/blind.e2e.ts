@@ -101,6 +101,8 @@ describe('a blind pass on the demo', () => {
 
     // Paused, the keys do not call; resumed, they do again.
     await page.locator('[data-testid="blind-mine"] button:has-text("Pause")').click();
+    // The pause is a ledger event: the panel says so once it is durable.
+    await expect.poll(() => page.locator('[data-testid="blind-mine"]').innerText()).toContain('· paused');
     await blur(page);
     await page.keyboard.press('u');
     await expect.poll(() => inHand(page)).toMatch(/^F\d+$/);
@@ -108,6 +110,7 @@ describe('a blind pass on the demo', () => {
     await expect.poll(() => page.locator('.patch-panel .notice').textContent()).toContain('The blind pass is paused');
     expect(await page.locator('[data-testid="own-tag"]').textContent()).toContain('No call of yours');
     await page.locator('[data-testid="blind-mine"] button:has-text("Resume")').click();
+    await expect.poll(() => page.locator('[data-testid="blind-mine"]').innerText()).not.toContain('· paused');
     await blur(page);
     await page.keyboard.press('Escape'); // let go of the patch: the walk below starts from the pass's first
 
