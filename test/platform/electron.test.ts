@@ -14,6 +14,7 @@ import { ElectronPlatform } from '../../src/platform/electron.ts';
 import { PlatformError } from '../../src/platform/errors.ts';
 import { choosePlatform } from '../../src/platform/index.ts';
 import { BrowserPlatform } from '../../src/platform/browser.ts';
+import type { FileRef } from '../../src/platform/types.ts';
 
 const MAIN: FrameIdentity = { url: 'app://fellfield/index.html', processId: 2, routingId: 1 };
 let tmp: string;
@@ -24,6 +25,7 @@ function bridgeFrom(sender: FrameIdentity, pick: string[]): BridgeApi {
     registry: new FileHandleRegistry(),
     demoDir: path.join(tmp, 'demo'),
     appFilesDir: path.join(tmp, 'app-files'),
+    imageryMemoryDir: path.join(tmp, 'imagery-memory'),
     showOpenDialog: async () => pick,
     showSaveDialog: async (name) => path.join(tmp, name),
   });
@@ -93,6 +95,20 @@ describe('the Electron platform', () => {
     await files.remove('pyr-1.tiles');
     expect((await files.list()).map((f) => f.name)).toEqual(['demo.site.json']);
     await expect(files.write('../x', 'x')).rejects.toMatchObject({ code: 'bad-request' });
+  });
+
+  it('finds a site\'s picked imagery again through the main process, by reference only', async () => {
+    const scene = path.join(tmp, 'north-pan.tif');
+    await writeFile(scene, pan);
+    const bridge = bridgeFrom(MAIN, [scene]);
+    const p = new ElectronPlatform(bridge);
+    const [picked] = await p.pickFiles({ title: 'The imagery', extensions: ['tif'], multiple: true, remember: true });
+    expect(picked.modified).toEqual(expect.any(Number));
+    await p.imageryMemory.remember('site-north', [picked]);
+    const [again] = await p.imageryMemory.recall('site-north');
+    expect(again).toMatchObject({ name: 'north-pan.tif', state: 'ready', file: { name: 'north-pan.tif', size: 3000, modified: picked.modified } });
+    expect(await p.readRange((again as { file: FileRef }).file, 0, 4)).toEqual(pan.slice(0, 4));
+    expect(JSON.stringify(again)).not.toContain(tmp);
   });
 
   it('saves through the save dialog', async () => {
