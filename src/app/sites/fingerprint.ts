@@ -1,3 +1,4 @@
+import { PlatformError } from '../../platform/errors.ts';
 import type { FileRef, Platform } from '../../platform/types.ts';
 import { hashFile, type Hasher } from './fileHash.ts';
 import type { FingerprintCache } from './fingerprintCache.ts';
@@ -30,7 +31,7 @@ export async function fingerprint(platform: Pick<Platform, 'readRange'>, files: 
   let before = 0;
   const result: Fingerprint[] = [];
   for (const [i, file] of files.entries()) {
-    signal?.throwIfAborted();
+    if (signal?.aborted) throw new PlatformError('aborted', 'the check was cancelled', file.name);
     const earlier = known[i];
     if (earlier !== null) {
       result.push({ sha256: earlier, how: 'earlier' });
