@@ -68,6 +68,12 @@ export function verifiedFiles(check: ImageryCheck): FileRef[] {
   return check.files.flatMap((f) => (f.status === 'verified' && f.picked ? [f.picked] : []));
 }
 
+/** The names of the site's files that have not proved to be its own yet (all of them before any check). */
+export function wantedFiles(scenes: readonly SceneRef[], check: ImageryCheck | null): string[] {
+  const verified = new Set(check?.files.filter((f) => f.status === 'verified').map((f) => `${f.sceneId}/${f.file.name}`) ?? []);
+  return scenes.flatMap((s) => s.files.filter((f) => !verified.has(`${s.id}/${f.name}`)).map((f) => f.name));
+}
+
 /** The scenes that can be shown: each with the files of it that proved the same, in date order. */
 export function verifiedScenes(check: ImageryCheck): SceneFiles[] {
   const byScene = new Map<string, SceneFiles>();

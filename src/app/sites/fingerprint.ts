@@ -22,6 +22,9 @@ export interface FingerprintOptions extends ProgressOptions {
   cache?: FingerprintCache;
 }
 
+/** What a screen holds to fingerprint with: the hashing worker and the fingerprints kept on this machine. */
+export type FingerprintTools = Pick<FingerprintOptions, 'hasher' | 'cache'>;
+
 /** The fingerprint of each file, in order. */
 export async function fingerprint(platform: Pick<Platform, 'readRange'>, files: FileRef[], options: FingerprintOptions): Promise<Fingerprint[]> {
   const { onProgress = () => {}, signal, hasher, cache } = options;

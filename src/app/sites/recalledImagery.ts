@@ -1,5 +1,5 @@
 import type { SceneRef } from '../../core/site/index.ts';
-import type { FileRef, Platform, RecalledFile } from '../../platform/types.ts';
+import type { FileRef, ImageryMemory, Platform, RecalledFile } from '../../platform/types.ts';
 import { checkSiteImagery, type CheckedFile, type ImageryCheck } from './checkImagery.ts';
 import type { FingerprintOptions } from './fingerprint.ts';
 
@@ -45,4 +45,17 @@ export function joinPicked(before: ImageryCheck | null, picked: FileRef[]): File
 /** Whether the user may be able to allow reading kept files again (a browser's prompt). */
 export function needsLeave(check: ImageryCheck | null): boolean {
   return check?.files.some((f) => f.status === 'not-allowed') ?? false;
+}
+
+/**
+ * Keeps the files as the site's imagery where the platform can. A failure is not raised:
+ * it only means the user picks the files on the next open, as before.
+ */
+export async function rememberImagery(memory: ImageryMemory | null, siteId: string, files: FileRef[]): Promise<void> {
+  if (!memory || !siteId || files.length === 0) return;
+  try {
+    await memory.remember(siteId, files);
+  } catch (error) {
+    console.warn(`The imagery of site ${siteId} is not remembered for next time: ${(error as Error).message}`);
+  }
 }

@@ -3,7 +3,7 @@ import { mkdtemp, mkdir, rename, rm, stat, utimes, writeFile } from 'node:fs/pro
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { allVerified, checkSiteImagery, verifiedFiles } from '../../../src/app/sites/checkImagery.ts';
+import { allVerified, checkSiteImagery, verifiedFiles, wantedFiles } from '../../../src/app/sites/checkImagery.ts';
 import { inlineHasher } from '../../../src/app/sites/fileHash.ts';
 import { FingerprintsInMemory } from '../../../src/app/sites/fingerprintCache.ts';
 import { checkRecalled, joinPicked } from '../../../src/app/sites/recalledImagery.ts';
@@ -72,6 +72,8 @@ describe('reopening a stored site with the imagery it was given before', () => {
     expect(check.files.map((f) => [f.file.name, f.status])).toEqual([['north-pan.tif', 'changed'], ['north-ms.tif', 'verified']]);
     expect(check.files[0].message).toBe('north-pan.tif: changed since it was checked (its size or modification time differs); pick it to fingerprint it again');
     expect(next.reads).toEqual([]);
+    expect(wantedFiles(scenes, check)).toEqual(['north-pan.tif']);
+    expect(wantedFiles(scenes, null)).toEqual(['north-pan.tif', 'north-ms.tif']);
 
     const picked = await next.platform.pickFiles({ title: 'north-pan.tif', extensions: ['tif'], multiple: true, remember: true });
     const joined = joinPicked(check, picked);
