@@ -6,6 +6,9 @@ import type { Ring } from '../src/core/geometry/types.ts';
 import { Random } from '../src/core/random.ts';
 import { foldReport } from '../src/core/training/foldReport.ts';
 import { anchorOf, assignFolds, type FoldAssignment, type FoldPatch } from '../src/core/training/folds.ts';
+import { applyFoldGap, boxGap } from '../src/core/training/foldGap.ts';
+import { extentOfRings } from '../src/core/geometry/measure.ts';
+import { outlineDistance } from '../src/core/training/outlineDistance.ts';
 import { result, seeded, time, type BenchResult, type Benchmark, type BenchSize } from './harness.ts';
 
 const SHARES = [0.3, 0.25, 0.2, 0.12, 0.1, 0.03];
@@ -65,4 +68,32 @@ const assign: Benchmark = {
   },
 };
 
-export const benchmarks: Benchmark[] = [assign];
+/** Baseline of the gap: every pair of patches in different folds, boxes first, then outlines. */
+function allPairsGap(patches: FoldPatch[], assignment: FoldAssignment, gap: number): number {
+  const boxes = patches.map((p) => extentOfRings(p.rings));
+  const within = new Uint8Array(patches.length);
+  for (let i = 0; i < patches.length; i++) {
+    for (let j = i + 1; j < patches.length; j++) {
+      if (assignment.fold[i] === assignment.fold[j] || boxGap(boxes[i], boxes[j]) >= gap) continue;
+      if (outlineDistance(patches[i].rings, patches[j].rings) < gap) within[i] = within[j] = 1;
+    }
+  }
+  return within.reduce((a, b) => a + b, 0);
+}
+
+// folds.gap: the patches of 10,000 crowns within 1 m of another fold's, by a spatial
+// index, beside every pair of patches in different folds (boxes, then outlines).
+const gap: Benchmark = {
+  name: 'folds.gap',
+  async run(size: BenchSize): Promise<BenchResult[]> {
+    const n = size === 'large' ? 100000 : 10000;
+    const patches = crowns(n);
+    const assignment = assignFolds(patches, { k: 5, blockSize: 50, seed: 1 });
+    const ours = await time(() => applyFoldGap(patches, assignment, 1), { runs: 5, warmup: 1 });
+    const baseline = await time(() => allPairsGap(patches, assignment, 1), { runs: 5, warmup: 1 });
+    const within = applyFoldGap(patches, assignment, 1).gap.within.reduce((a, b) => a + b, 0);
+    return [result('folds.gap', n, ours, 'all pairs in different folds', baseline, { within_gap: within, baseline_within_gap: allPairsGap(patches, assignment, 1) })];
+  },
+};
+
+export const benchmarks: Benchmark[] = [assign, gap];

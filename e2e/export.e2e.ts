@@ -88,4 +88,30 @@ describe('the Export page', () => {
     expect(info.stdout).toMatch(/Feature Count: 225\n/);
     expect(info.stdout).toMatch(/ID\["EPSG",32608\]\]\s*Data axis/);
   });
+
+  it('offers a scheme stored on the Training sheet, and exports the classes it gives', async () => {
+    const { page } = session!;
+    await page.click('nav button:has-text("Training sheet")');
+    const sheet = page.getByRole('region', { name: 'Training sheet' });
+    await sheet.getByRole('button', { name: 'New scheme…' }).click();
+    const editor = sheet.locator('[data-testid="scheme-editor"]');
+    await editor.getByLabel('Scheme name').fill('Birch apart');
+    await editor.getByLabel('Target species of the preset').selectOption('BEFA');
+    await editor.getByRole('button', { name: 'one species against the rest:' }).click();
+    await editor.getByLabel('Scheme name').press('Enter');
+    await expect.poll(() => page.locator('[data-testid="training-message"]').textContent()).toMatch(/Scheme "Birch apart" stored with the site/);
+
+    await page.click('nav button:has-text("Export")');
+    await page.check('input[value="geojson"]');
+    const options = await page.locator('select[aria-label="Scheme"] option').allInnerTexts();
+    expect(options[0]).toBe('Birch apart: stored with the site');
+    await page.selectOption('select[aria-label="Scheme"]', 'Birch apart');
+    await expect.poll(() => page.locator('[data-testid="export-count"]').textContent()).toBe('225');
+    const paths = await exportAndSave(page, join(out, 'stored-scheme'));
+    const site = await verified(paths, 'labels.geojson');
+    expect(site.options.scheme).toEqual({ name: 'Birch apart', classOf: { ABFI: 'not BEFA', PIEX: 'not BEFA', PISI: 'not BEFA', SAIN: 'not BEFA', BEFA: 'BEFA', VAFI: 'not BEFA', RHPE: 'not BEFA' } });
+    expect(site.state.schemes.map((s) => s.name)).toEqual(['Birch apart']);
+    const classes = new Set((JSON.parse(readFileSync(paths['labels.geojson'], 'utf8')) as { features: { properties: { class: string } }[] }).features.map((f) => f.properties.class));
+    expect([...classes].sort()).toEqual(['BEFA', 'not BEFA']);
+  });
 });

@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { fromFile } from 'geotiff';
 import { openApp, screenshot, type Session } from './browser.ts';
+import { blur, mapReady, meanAbsDiff, percentileByRank } from './imageryChecks.ts';
 import { layerCanvasStats } from './canvasStats.ts';
 
 // The imagery views of the demo site: composites, stretch, pan-sharpening, an index and
@@ -13,11 +14,6 @@ import { layerCanvasStats } from './canvasStats.ts';
 const demo = join(import.meta.dirname, '..', 'demo');
 let session: Session;
 let page: Page;
-
-async function mapReady() {
-  await page.waitForTimeout(150);
-  await page.waitForSelector('[data-testid="map"][data-ready="true"]', { timeout: 60_000 });
-}
 
 /** A coarse colour signature of the imagery canvas: mean RGB of 32 x 20 cells. */
 function signature(): Promise<number[]> {
@@ -40,30 +36,20 @@ function signature(): Promise<number[]> {
   });
 }
 
-/** Single-key shortcuts wait while a form field has the focus: leave it, as a user would. */
-const blur = () => page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
-
-const meanAbsDiff = (a: number[], b: number[]) => a.reduce((sum, v, i) => sum + Math.abs(v - b[i]), 0) / a.length;
-
-/** Nearest-rank percentile (Hyndman & Fan 1996, definition 1), worked here from its definition. */
-function percentile(sorted: ArrayLike<number>, p: number) {
-  return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))];
-}
-
 describe('imagery views of the demo site', () => {
   const views: Record<string, number[]> = {};
 
   beforeAll(async () => {
     session = await openApp();
     page = session.page;
-    await mapReady();
+    await mapReady(page);
   });
   afterAll(async () => {
     await session?.close();
   });
 
   async function capture(name: string) {
-    await mapReady();
+    await mapReady(page);
     await screenshot(page, `imagery-${name}`);
     const stats = await layerCanvasStats(page, '.imagery-layer canvas');
     expect(stats.opaqueShare, `${name} is blank`).toBeGreaterThan(0.3);
@@ -81,12 +67,12 @@ describe('imagery views of the demo site', () => {
     await page.selectOption('select[aria-label="Stretch rule"]', 'stddev');
     await page.fill('input[aria-label="Gamma"]', '1.8');
     await page.dispatchEvent('input[aria-label="Gamma"]', 'input');
-    await blur();
+    await blur(page);
     await capture('stretch-sd-gamma');
     await page.selectOption('select[aria-label="Stretch rule"]', 'percentile');
     await page.fill('input[aria-label="Gamma"]', '1');
     await page.dispatchEvent('input[aria-label="Gamma"]', 'input');
-    await blur();
+    await blur(page);
     await page.keyboard.press('s');
     await expect.poll(() => page.getAttribute('button:has-text("Sharpened")', 'aria-pressed')).toBe('true');
     await capture('sharpened');
@@ -103,7 +89,7 @@ describe('imagery views of the demo site', () => {
     const masked = await layerCanvasStats(page, '.imagery-layer canvas');
     const full = await (async () => {
       await page.keyboard.press('m');
-      await mapReady();
+      await mapReady(page);
       return layerCanvasStats(page, '.imagery-layer canvas');
     })();
     expect(masked.opaqueShare).toBeLessThan(full.opaqueShare - 0.05); // bare ground and snow left out
@@ -111,23 +97,23 @@ describe('imagery views of the demo site', () => {
 
   it('swipes the late date across the early one', async () => {
     await page.keyboard.press('n');
-    await mapReady();
+    await mapReady(page);
     await page.keyboard.press('w');
     await expect.poll(() => page.getAttribute('button:has-text("Swipe")', 'aria-pressed')).toBe('true');
-    await mapReady();
+    await mapReady(page);
     await screenshot(page, 'imagery-swipe');
     const compare = await layerCanvasStats(page, '.imagery-compare canvas');
     // The late date fills the left part of the map only.
     expect(compare.opaqueShare).toBeGreaterThan(0.1);
     expect(compare.opaqueShare).toBeLessThan(0.6);
     await page.keyboard.press('w');
-    await mapReady();
+    await mapReady(page);
   });
 
   it('flickers between the dates: the late date comes and goes', async () => {
     await page.keyboard.press('b');
     await expect.poll(() => page.getAttribute('button:has-text("Flicker")', 'aria-pressed')).toBe('true');
-    await mapReady();
+    await mapReady(page);
     const seen = new Set<boolean>();
     for (let i = 0; i < 16; i++) {
       seen.add(await page.evaluate(() => {
@@ -177,7 +163,7 @@ describe('imagery views of the demo site', () => {
     const bands = (await overview.readRasters()) as unknown as ArrayLike<number>[];
     for (let b = 0; b < 8; b++) {
       const sorted = Float64Array.from(bands[b]).sort();
-      const min = percentile(sorted, 2), max = percentile(sorted, 98);
+      const min = percentileByRank(sorted, 2), max = percentileByRank(sorted, 98);
       const t = (expectedRaw[b] - min) / (max - min);
       expect(shownStretched[b], `band ${b + 1}`).toBe(t <= 0 ? 0 : t >= 1 ? 255 : Math.round(255 * t));
     }

@@ -8,9 +8,9 @@ import { openApp, screenshot, type Session } from './browser.ts';
 // disagreements are seeded through the app itself: a blind second look by another
 // interpreter on the desk, some calls differing from the field file's. A third person
 // then settles each on the Rulings page without the mouse — accept A, accept B, and a
-// species overruling both, which asks for a reason — and the export's preview shows the
-// open disagreements gone. The agreement sheet compares passes only (rulings do not
-// change kappa), so it is not asked about rulings here.
+// species overruling both, which asks for a reason — and the agreement sheet says what
+// the rulings made of the differing calls while the export's preview shows the open
+// disagreements gone.
 
 const demo = join(import.meta.dirname, '..', 'demo');
 const field = JSON.parse(readFileSync(join(demo, 'field.geojson'), 'utf8')) as { features: { properties: { id: string; species: string } }[] };
@@ -148,11 +148,85 @@ describe('settling disagreements on the Rulings page', () => {
     await screenshot(page, 'rulings-settled');
   });
 
-  it('lets the export take the ruled patches', async () => {
+  it('shows the patch in hand beside the median spectra of the species its calls name', async () => {
     const { page } = session!;
+    await page.locator('[data-testid="filter-status"]').selectOption('all');
+    // A patch called ABFI (the demo's commonest species with pure pixels under the default rule).
+    const item = page.locator('[data-testid="rulings-queue"] li button', { hasText: 'ABFI' }).first();
+    await item.click();
+    const named = ((await item.locator('.calls').textContent()) ?? '').split(' / ').filter((s) => roster.some((r) => r.code === s));
+    const lines = page.locator('[data-testid="species-references"] li');
+    await expect.poll(() => lines.evaluateAll((els) => els.map((e) => e.getAttribute('data-species')))).toEqual([...new Set(named)]);
+    const abfi = page.locator('[data-testid="species-references"] li[data-species="ABFI"]');
+    await expect.poll(() => abfi.getAttribute('data-drawn'), { timeout: 60_000 }).toBe('true');
+    expect(await abfi.textContent()).toMatch(/ABFI .*median of its settled patches\s*\d+ pure px in \d+ of \d+ settled patch/);
+    // Drawn: the patch solid, each species dashed, each over its shaded interval.
+    const panel = page.locator('[data-testid="ruling-hand"] [data-testid="spectrum-panel"]');
+    const svg = panel.locator('svg');
+    await expect.poll(() => svg.locator('polyline:not([stroke-dasharray])').count()).toBe(1);
+    expect(await svg.locator('polyline[stroke-dasharray]').count()).toBeGreaterThanOrEqual(1);
+    await panel.scrollIntoViewIfNeeded();
+    await screenshot(page, 'rulings-spectra');
+    await page.locator('[data-testid="filter-status"]').selectOption('open');
+  });
+
+  it('lets the agreement sheet and the export reflect the rulings', async () => {
+    const { page } = session!;
+    // The sheet compares the field crew's pass with Ben's blind one by default, and says
+    // what the three rulings made of their three differing calls.
+    await page.locator('nav button:has-text("Agreement sheet")').click();
+    const settled = page.locator('[data-testid="settled-figures"]');
+    await expect.poll(() => settled.locator('[data-figure="settled"]').textContent()).toBe('3 of 3');
+    expect(await settled.locator('[data-figure="open"]').textContent()).toBe('0');
+    expect(await settled.locator('[data-figure="settled-why"]').textContent()).toMatch(/^Of the 3 patches the two passes called differently, 3 are settled \(.+\) and 0 are still open/);
+    const rows = settled.locator('[data-testid="against-settled"] tbody tr');
+    expect(await rows.count()).toBe(2);
+    expect(await rows.nth(1).getAttribute('data-pass')).toBe('blind-ben-blind-1');
+    // Ben called 8 patches, all settled now; his calls match where the rulings took them.
+    expect(await rows.nth(1).locator('td').first().textContent()).toBe(String(SAMPLE));
+    await settled.scrollIntoViewIfNeeded();
+    await screenshot(page, 'agreement-after-rulings');
     const after = await openDisagreementsInExport(page);
     expect(after.open).toBe(before.open - 3);
     expect(after.out).toBe(before.out + 3);
+  });
+
+  it('takes a patch to the desk to cut it, and comes back to the same place in the queue', async () => {
+    const { page } = session!;
+    await page.locator('nav button:has-text("Rulings")').click();
+    await page.locator('[data-testid="filter-status"]').selectOption('all');
+    const listed = page.locator('[data-testid="rulings-queue"] li button');
+    const before = await listed.count();
+    const target = (await listed.nth(1).getAttribute('data-patch'))!;
+    await listed.nth(1).click();
+    await expect.poll(() => rulingPatch(page)).toBe(target);
+    await blur(page);
+    await page.keyboard.press('g');
+    // The desk opens with the patch in hand, centred, and says how to come back.
+    await expect.poll(() => page.locator('[data-testid="desk-errand"]').textContent()).toContain(`Patch ${target} came from the rulings`);
+    await expect.poll(() => inHand(page)).toBe(target);
+    await mapReady(page);
+    await screenshot(page, 'rulings-errand-desk');
+    const patchCount = async () => Number((await page.locator('.patch-panel > p.detail').last().textContent())?.match(/(\d+) patches/)?.[1]);
+    const count = await patchCount();
+    const box = (await page.locator('[data-testid="map"]').boundingBox())!;
+    const cx = box.x + box.width / 2, cy = box.y + box.height / 2;
+    await page.keyboard.press('l');
+    await page.mouse.click(cx - 300, cy);
+    await page.waitForTimeout(150);
+    await page.mouse.dblclick(cx + 300, cy + 3);
+    await expect.poll(() => patchCount()).toBe(count + 1);
+    await expect.poll(() => saved(page)).toContain('All saved');
+    await page.keyboard.press('Escape');
+    await page.keyboard.press('Shift+G');
+    // Back on the Rulings page: the same filter, the same patch in hand, and the cut-off
+    // piece (it carries the same calls) waiting in the queue as a disagreement of its own.
+    await expect.poll(() => rulingPatch(page)).toBe(target);
+    expect(await page.locator('[data-testid="filter-status"]').inputValue()).toBe('all');
+    await expect.poll(() => listed.count()).toBe(before + 1);
+    expect(await page.locator('[data-testid="desk-errand"]').count()).toBe(0);
+    await mapReady(page, 'ruling-map');
+    await screenshot(page, 'rulings-back-from-desk');
   });
 
   it('two windows ruling on one patch: the second is refused and told to reopen, the first stands', async () => {

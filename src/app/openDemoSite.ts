@@ -1,10 +1,9 @@
 import type { Platform } from '../platform/types.ts';
 import { createRenderPool } from '../imagery/renderPool.ts';
-import type { Raster } from '../imagery/Raster.ts';
 import { openForViewing } from '../imagery/pyramidCache.ts';
 import { tileStoreFor } from '../imagery/tileStore.ts';
-import { multispectralView, panchromaticView } from './sceneView.ts';
-import type { BandInfo, FieldPolygons, OpenSite, RosterEntry, SceneView } from './site.ts';
+import { multispectralView, panchromaticView, startDefaultStretch } from './sceneView.ts';
+import type { BandInfo, FieldPolygons, MappedSite, RosterEntry, SceneView } from './site.ts';
 
 interface DemoManifest {
   kind: string;
@@ -21,8 +20,12 @@ export interface OpenOptions {
   signal?: AbortSignal;
 }
 
-/** Opens the generated demo site: its manifest, both dates' rasters, the roster and the field polygons. */
-export async function openDemoSite(platform: Platform, options: OpenOptions = {}): Promise<OpenSite> {
+/**
+ * Opens the generated demo site: its manifest, then at once both dates' rasters, the
+ * roster and the field polygons; the first date's default stretch starts reading before
+ * this returns, so the desk's first screen is under way while the site is set up.
+ */
+export async function openDemoSite(platform: Platform, options: OpenOptions = {}): Promise<MappedSite> {
   const { onProgress = () => {}, signal } = options;
   const readJson = async <T>(name: string): Promise<T> => {
     const file = await platform.openDemoFile(name);
@@ -41,22 +44,29 @@ export async function openDemoSite(platform: Platform, options: OpenOptions = {}
   const pool = createRenderPool();
   const tiles = tileStoreFor(platform);
   try {
-    const scenes: SceneView[] = [];
-    const steps = manifest.dates.length * 2 + 2;
-    let step = 0;
-    for (const { date } of manifest.dates) {
+    const pairs = manifest.dates.map(({ date }) => {
       const panName = manifest.files.find((f) => f.date === date && f.role.startsWith('panchromatic'))?.name;
       const msName = manifest.files.find((f) => f.date === date && f.role.startsWith('multispectral'))?.name;
       if (!panName || !msName) throw new Error(`manifest.json: the scene of ${date} lacks a panchromatic or multispectral file`);
-      onProgress({ label: `Opening ${panName}`, fraction: ++step / steps });
-      const pan = await openForViewing(platform, pool, await platform.openDemoFile(panName), tiles, { signal, onProgress });
-      onProgress({ label: `Opening ${msName}`, fraction: ++step / steps });
-      const ms = await openForViewing(platform, pool, await platform.openDemoFile(msName), tiles, { signal, onProgress });
-      scenes.push(await sceneView(date, pan, ms, manifest.bands, signal));
-    }
-    onProgress({ label: 'Reading the roster and field polygons', fraction: ++step / steps });
-    const roster = (await readJson<{ species: RosterEntry[] }>('roster.json')).species;
-    const fieldPolygons = await readJson<FieldPolygons>('field.geojson');
+      return { date, panName, msName };
+    });
+    const steps = pairs.length * 2 + 2;
+    let step = 0;
+    const open = async (name: string) => {
+      const raster = await openForViewing(platform, pool, await platform.openDemoFile(name), tiles, { signal, onProgress });
+      onProgress({ label: `Opened ${name}`, fraction: ++step / steps });
+      return raster;
+    };
+    onProgress({ label: `Opening ${pairs.flatMap((p) => [p.panName, p.msName]).join(', ')}`, fraction: 0 });
+    const [scenes, roster, fieldPolygons] = await Promise.all([
+      Promise.all(pairs.map(async ({ date, panName, msName }): Promise<SceneView> => {
+        const [pan, ms] = await Promise.all([open(panName), open(msName)]);
+        return { date, pan: panchromaticView(pan), ms: multispectralView(ms, manifest.bands) };
+      })),
+      readJson<{ species: RosterEntry[] }>('roster.json').then((r) => r.species),
+      readJson<FieldPolygons>('field.geojson'),
+    ]);
+    startDefaultStretch(scenes[0]);
     onProgress({ label: 'Ready', fraction: 1 });
     return {
       name: manifest.basin,
@@ -72,9 +82,4 @@ export async function openDemoSite(platform: Platform, options: OpenOptions = {}
     pool.dispose();
     throw error;
   }
-}
-
-async function sceneView(date: string, pan: Raster, ms: Raster, bands: BandInfo[], signal?: AbortSignal): Promise<SceneView> {
-  const [panView, msView] = await Promise.all([panchromaticView(pan, signal), multispectralView(ms, bands, signal)]);
-  return { date, pan: panView, ms: msView };
 }

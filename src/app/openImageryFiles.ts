@@ -5,8 +5,9 @@ import { viewable } from '../imagery/pyramidCache.ts';
 import { tileStoreFor, type TileStore } from '../imagery/tileStore.ts';
 import { urlReader } from '../imagery/urlSource.ts';
 import type { FileRef } from '../platform/types.ts';
-import { multispectralView, panchromaticView } from './sceneView.ts';
-import type { OpenSite } from './site.ts';
+import { multispectralView, panchromaticView, startDefaultStretch } from './sceneView.ts';
+import type { OpenSite, SceneView } from './site.ts';
+import { placementIn, referencePlacement, unplacedReason } from '../core/raster/pixelSpace.ts';
 
 export interface OpenFilesOptions {
   onProgress?: (progress: { label: string; fraction: number | null }) => void;
@@ -15,12 +16,28 @@ export interface OpenFilesOptions {
   pool?: ReturnType<typeof createRenderPool>;
   /** Where pyramid caches are kept. Default: the platform's app files on disk where it has them, else IndexedDB (tileStoreFor). */
   tileStore?: () => Promise<TileStore | null>;
+  /** Show the scene in pixel space when its CRS cannot be placed on a map (see PixelSpaceOffer). */
+  pixelSpace?: boolean;
+}
+
+/**
+ * The files are usable but their CRS cannot be placed on a map: the message says why,
+ * and `open` opens them in pixel space instead, if the user chooses to.
+ */
+export class PixelSpaceOffer extends Error {
+  /** `reasons`: one line per file that cannot be placed, naming it. */
+  constructor(readonly reasons: string[], readonly open: (options: OpenFilesOptions) => Promise<OpenSite>) {
+    super(`${reasons.join('\n')}\nThe imagery can still be looked at in pixel space: coordinates in pixels, no map, and no patches drawn or stored.`);
+    this.name = 'PixelSpaceOffer';
+  }
 }
 
 /**
  * Opens one or two GeoTIFFs the user picked as a scene: a one-band file is the
  * panchromatic raster, a multiband file the multispectral one. Every problem is told in
- * a line that names its file; nothing opens unless all of them are usable.
+ * a line that names its file; nothing opens unless all of them are usable. A scene whose
+ * CRS cannot be placed on a map is refused with a PixelSpaceOffer, and opened in pixel
+ * space (view-only) when `pixelSpace` is set.
  */
 export async function openImageryFiles(platform: RangeReader, files: FileRef[], options: OpenFilesOptions = {}): Promise<OpenSite> {
   const { onProgress = () => {}, signal } = options;
@@ -28,16 +45,15 @@ export async function openImageryFiles(platform: RangeReader, files: FileRef[], 
   const pool = options.pool ?? createRenderPool();
   const disposePool = options.pool ? () => {} : () => pool.dispose();
   try {
-    const rasters: Raster[] = [];
+    let rasters: Raster[] = [];
     const problems: string[] = [];
+    const unplaced: string[] = [];
     for (const [i, file] of files.entries()) {
       onProgress({ label: `Opening ${file.name}`, fraction: i / files.length });
       try {
         const opened = await Raster.open(platform, pool, file, signal);
-        if (!opened.summary.georeferenced || opened.summary.epsg === null) {
-          problems.push(`${file.name}: has no usable georeferencing (CRS and geotransform), so it cannot be placed on the map`);
-          continue;
-        }
+        const reason = unplacedReason(opened.summary);
+        if (reason) unplaced.push(`${file.name}: ${reason}`);
         const raster = await viewable(opened, options.tileStore ?? tileStoreFor(platform), { signal, onProgress });
         await raster.bandLimits(0, 2, 98, signal); // decodes a small level: a broken file shows itself now
         rasters.push(raster);
@@ -46,15 +62,28 @@ export async function openImageryFiles(platform: RangeReader, files: FileRef[], 
         problems.push((error as Error).message);
       }
     }
+    const onePan = rasters.filter((r) => r.summary.bands === 1);
+    const oneMs = rasters.filter((r) => r.summary.bands > 1);
+    if (onePan.length > 1) problems.push(`${onePan.map((r) => r.file.name).join(' and ')}: both are one-band rasters; a scene pairs one panchromatic with one multiband raster`);
+    if (oneMs.length > 1) problems.push(`${oneMs.map((r) => r.file.name).join(' and ')}: both are multiband rasters; a scene pairs one panchromatic with one multiband raster`);
+    if (problems.length) throw new Error(problems.join('\n'));
+    if (unplaced.length && !options.pixelSpace) {
+      throw new PixelSpaceOffer(
+        unplaced,
+        (again) => openImageryFiles(platform, files, { ...again, pool: options.pool, pixelSpace: true }),
+      );
+    }
+
+    const notes: string[] = [];
+    let reference: Raster | null = null;
+    if (unplaced.length) {
+      ({ rasters, reference } = inPixelSpace(rasters, notes));
+      notes.unshift(`Shown in pixel space, view-only: ${unplaced.join('; ')}. Coordinates are pixels of ${reference.file.name} (x across, y up from its bottom edge); patches cannot be drawn or stored here.`);
+    }
     const pan = rasters.filter((r) => r.summary.bands === 1);
     const ms = rasters.filter((r) => r.summary.bands > 1);
-    if (pan.length > 1) problems.push(`${pan.map((r) => r.file.name).join(' and ')}: both are one-band rasters; a scene pairs one panchromatic with one multiband raster`);
-    if (ms.length > 1) problems.push(`${ms.map((r) => r.file.name).join(' and ')}: both are multiband rasters; a scene pairs one panchromatic with one multiband raster`);
-    if (problems.length) throw new Error(problems.join('\n'));
-
     // A pair that disagrees is told how; the panchromatic raster is kept, so the scene is still usable.
-    const notes: string[] = [];
-    if (pan.length === 1 && ms.length === 1) {
+    if (pan.length === 1 && ms.length === 1 && !reference) {
       const disagreement = pairProblem(pan[0], ms[0]);
       if (disagreement) {
         notes.push(disagreement);
@@ -63,7 +92,6 @@ export async function openImageryFiles(platform: RangeReader, files: FileRef[], 
     }
     const kept = [...pan, ...ms];
 
-    onProgress({ label: 'Computing the default stretch', fraction: 0.9 });
     const first = kept[0].summary;
     const msRaster = ms[0] ?? null;
     let msBands: ReturnType<typeof bandTableFor> = [];
@@ -73,22 +101,24 @@ export async function openImageryFiles(platform: RangeReader, files: FileRef[], 
       const tableProblem = bandTableProblem(bands, bandNames, bandWavelengthsNm);
       if (tableProblem) notes.push(`${msRaster.file.name}: ${tableProblem}`);
     }
-    const [panView, msView] = await Promise.all([
-      pan[0] ? panchromaticView(pan[0], signal) : null,
-      msRaster ? multispectralView(msRaster, msBands, signal, notes) : null,
-    ]);
+    const scene: SceneView = {
+      date: first.metadata.TIFFTAG_DATETIME ?? 'date not recorded',
+      pan: pan[0] ? panchromaticView(pan[0]) : null,
+      ms: msRaster ? multispectralView(msRaster, msBands, notes) : null,
+    };
+    startDefaultStretch(scene);
     const extents = kept.map((r) => r.summary.extent);
     return {
       name: files.map((f) => f.name).join(' + '),
-      epsg: first.epsg!,
-      crsName: first.crsName ?? `EPSG:${first.epsg}`,
+      epsg: reference ? null : first.epsg!,
+      crsName: reference ? `pixels of ${reference.file.name}` : (first.crsName ?? `EPSG:${first.epsg}`),
       extent: [
         Math.min(...extents.map((e) => e[0])),
         Math.min(...extents.map((e) => e[1])),
         Math.max(...extents.map((e) => e[2])),
         Math.max(...extents.map((e) => e[3])),
       ],
-      scenes: [{ date: first.metadata.TIFFTAG_DATETIME ?? 'date not recorded', pan: panView, ms: msView }],
+      scenes: [scene],
       roster: [],
       fieldPolygons: { type: 'FeatureCollection', features: [] },
       notes,
@@ -98,6 +128,22 @@ export async function openImageryFiles(platform: RangeReader, files: FileRef[], 
     disposePool();
     throw error;
   }
+}
+
+/**
+ * The rasters in pixels of the first (the panchromatic one when there is one); a raster
+ * that cannot be placed against it is left out, with a note.
+ */
+function inPixelSpace(rasters: Raster[], notes: string[]): { rasters: Raster[]; reference: Raster } {
+  const reference = rasters.find((r) => r.summary.bands === 1) ?? rasters[0];
+  const placed = [reference.placedAt(referencePlacement(reference.summary))];
+  for (const raster of rasters) {
+    if (raster === reference) continue;
+    const placement = placementIn(reference.summary, raster.summary);
+    if (placement) placed.push(raster.placedAt(placement));
+    else notes.push(`${raster.file.name} cannot be placed against ${reference.file.name} in pixel space (each needs a geotransform in the same CRS), so only ${reference.file.name} is shown`);
+  }
+  return { rasters: placed, reference };
 }
 
 /**

@@ -1,14 +1,9 @@
 import type { Raster } from '../imagery/Raster.ts';
-import type { StretchLimits } from '../core/render/stretch.ts';
 import type { BandInfo, SceneView } from './site.ts';
 
-async function defaultStretch(raster: Raster, band: number, signal?: AbortSignal): Promise<StretchLimits> {
-  return { ...(await raster.bandLimits(band, 2, 98, signal)), gamma: 1 };
-}
-
-/** A panchromatic raster with its default 2-98 % stretch. */
-export async function panchromaticView(raster: Raster, signal?: AbortSignal): Promise<SceneView['pan']> {
-  return { raster, limits: await defaultStretch(raster, 0, signal) };
+/** A panchromatic raster as a scene shows it (its stretch comes from its own sample, on the desk). */
+export function panchromaticView(raster: Raster): SceneView['pan'] {
+  return { raster };
 }
 
 /**
@@ -16,7 +11,7 @@ export async function panchromaticView(raster: Raster, signal?: AbortSignal): Pr
  * raster without red, green and blue gets its first three bands (or fewer, repeated)
  * and a note saying so, so it can still be seen.
  */
-export async function multispectralView(raster: Raster, bands: BandInfo[], signal?: AbortSignal, notes: string[] = []): Promise<SceneView['ms']> {
+export function multispectralView(raster: Raster, bands: BandInfo[], notes: string[] = []): SceneView['ms'] {
   const find = (name: string) => bands.find((b) => b.name.toLowerCase() === name)?.index;
   const named = ['red', 'green', 'blue'].map(find);
   let rgb: [number, number, number];
@@ -26,6 +21,19 @@ export async function multispectralView(raster: Raster, bands: BandInfo[], signa
     rgb = [0, Math.min(1, n - 1), Math.min(2, n - 1)];
     notes.push(`${raster.file.name}: its band table (${bands.map((b) => b.name).join(', ')}) has no red, green and blue, so the composite shows bands ${rgb.map((b) => b + 1).join(', ')}; choose others under Custom`);
   }
-  const [r, g, b] = await Promise.all(rgb.map((band) => defaultStretch(raster, band, signal)));
-  return { raster, bands, naturalColour: { bands: rgb, limits: [r, g, b] } };
+  return { raster, bands, naturalColour: { bands: rgb } };
+}
+
+/**
+ * Starts reading the band samples the first view of a scene stretches by (the pan band
+ * and the natural-colour bands, each from a small overview, in the render pool), so they
+ * are ready or under way by the time the desk asks. Nothing waits for them here; a
+ * failure is told when the desk asks again.
+ */
+export function startDefaultStretch(scene: SceneView): void {
+  const reads = [
+    ...(scene.pan ? [scene.pan.raster.sample(0)] : []),
+    ...(scene.ms ? scene.ms.naturalColour.bands.map((band) => scene.ms!.raster.sample(band)) : []),
+  ];
+  for (const read of reads) read.catch(() => {});
 }

@@ -1,6 +1,5 @@
 import type { RosterEntry } from '../core/site/types.ts';
 import type { Raster } from '../imagery/Raster.ts';
-import type { StretchLimits } from '../core/render/stretch.ts';
 import type { BandEntry as BandInfo } from '../core/bandTable.ts';
 import type { SiteStore } from '../store/SiteStore.ts';
 import type { DiskCopySession } from './site/diskCopySession.ts';
@@ -11,15 +10,15 @@ export type { RosterEntry } from '../core/site/types.ts';
 
 export type { BandEntry as BandInfo } from '../core/bandTable.ts';
 
-/** One acquisition: its panchromatic and multispectral rasters and their default stretch. */
+/** One acquisition: its panchromatic and multispectral rasters (each date is stretched by its own samples, on the desk). */
 export interface SceneView {
   date: string;
-  pan: { raster: Raster; limits: StretchLimits } | null;
+  pan: { raster: Raster } | null;
   ms: {
     raster: Raster;
     bands: BandInfo[];
-    /** Natural colour: the red, green and blue bands (0-based) and their stretch. */
-    naturalColour: { bands: [number, number, number]; limits: [StretchLimits, StretchLimits, StretchLimits] };
+    /** Natural colour: the red, green and blue bands (0-based). */
+    naturalColour: { bands: [number, number, number] };
   } | null;
 }
 
@@ -30,7 +29,12 @@ export interface FieldPolygons {
 
 export interface OpenSite {
   name: string;
-  epsg: number;
+  /**
+   * The CRS of the map, or null for pixel space: a scene whose CRS cannot be placed on
+   * a map (none, user-defined, or a code Fellfield cannot project) shown in pixels of
+   * its first raster, view-only.
+   */
+  epsg: number | null;
   crsName: string;
   extent: [number, number, number, number];
   scenes: SceneView[];
@@ -46,3 +50,6 @@ export interface OpenSite {
   diskCopy?: DiskCopySession;
   dispose(): void;
 }
+
+/** A site whose imagery sits on a map (not pixel space): what a stored site is made from. */
+export type MappedSite = OpenSite & { epsg: number };

@@ -4,6 +4,7 @@ import type { StretchLimits } from '../core/render/stretch.ts';
 import { percentileOfSorted, type BandSample } from '../core/render/bandSample.ts';
 import type { FileRef, Platform } from '../platform/types.ts';
 import { ImageryError, inspectInWorker } from './inspectInWorker.ts';
+import { coalescingReader } from './coalescingReader.ts';
 import { uniqueBuffers, type EncodedTile, type JobRunner, type PixelBox, type PlacedTile, type SampleReply, type TileImage } from './renderJobs.ts';
 
 /** The render pool (a WorkerPool of render workers) or any other runner of render jobs. */
@@ -41,12 +42,22 @@ export class Raster {
     if (!summary.decodable) {
       throw new ImageryError(`${file.name}: ${summary.compression} compression of ${summary.dtype} data cannot be decoded yet`, 'unsupported');
     }
-    return Raster.fromSummary(reader, pool, file, summary);
+    // The blocks of a screen are read together: neighbours in the file as one read.
+    return Raster.fromSummary(coalescingReader(reader), pool, file, summary);
   }
 
   /** A raster from a summary read elsewhere (a worker, a test, the command line). */
   static fromSummary(reader: RangeReader, pool: RenderPool, file: FileRef, summary: TiffSummary): Raster {
     return new Raster(reader, pool, file, summary);
+  }
+
+  /**
+   * The same file placed elsewhere on the map (pixel space: see core/raster/pixelSpace),
+   * sharing its reads and its render pool.
+   */
+  placedAt(placement: Pick<TiffSummary, 'origin' | 'pixelSize' | 'extent'>): Raster {
+    const { origin, pixelSize, extent } = placement;
+    return new Raster(this.#reader, this.pool, this.file, { ...this.summary, origin, pixelSize, extent });
   }
 
   /**

@@ -1,4 +1,4 @@
-import { decodeTile } from '../core/tiff/decodeTile.ts';
+import { decodeTile, decodeTileAsync } from '../core/tiff/decodeTile.ts';
 import type { SampleArray } from '../core/tiff/tags.ts';
 import { compositeRgba } from '../core/render/composite.ts';
 import { normalisedDifference } from '../core/render/indices.ts';
@@ -13,11 +13,33 @@ import type { EncodedTile, PixelBox, PlacedTile, RenderRequest, SampleReply } fr
 
 const ramp = rampTable(vegetationRamp);
 
+/**
+ * Decodes every block of a job ahead of its band math, with the runtime's own inflater
+ * where it has one (decodeTileAsync); the job's functions below then find the values on
+ * each block. Blocks shared by several bands of an interleaved file decode once.
+ */
+export async function decodeBlocks(request: RenderRequest): Promise<void> {
+  const tiles: EncodedTile[] = [];
+  if ('tiles' in request) tiles.push(...request.tiles);
+  if ('pan' in request) tiles.push(...request.pan);
+  if ('bands' in request) for (const band of request.bands) tiles.push(...band);
+  const decoded = new Map<ArrayBuffer, Promise<SampleArray>>();
+  await Promise.all(tiles.map(async (tile) => {
+    if (tile.bytes.byteLength === 0 || tile.values) return;
+    let values = decoded.get(tile.bytes);
+    if (!values) {
+      values = decodeTileAsync(new Uint8Array(tile.bytes), tile.layout);
+      decoded.set(tile.bytes, values);
+    }
+    tile.values = await values;
+  }));
+}
+
 /** One band of a block as its own array: decoded, and taken out of interleaved samples. */
 export function decodeBand(tile: EncodedTile): SampleArray {
   const { width, height, samples } = tile.layout;
   if (tile.bytes.byteLength === 0) return new Uint16Array(width * height);
-  const data = decodeTile(new Uint8Array(tile.bytes), tile.layout);
+  const data = tile.values ?? decodeTile(new Uint8Array(tile.bytes), tile.layout);
   if (samples === 1) return data;
   const band = new (data.constructor as new (n: number) => SampleArray)(width * height);
   for (let i = 0, j = tile.sample; i < band.length; i++, j += samples) band[i] = data[j];

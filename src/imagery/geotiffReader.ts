@@ -3,7 +3,7 @@
 // no cycle check), and every block is decoded by our capped decoder (geotiff.js inflates
 // with no size cap). Used for small windows: pixel values, patch spectra.
 import { GeoTIFF, type ReadRasterResult } from 'geotiff';
-import { decodeTile, type TileLayout } from '../core/tiff/decodeTile.ts';
+import { decodeTileAsync, type TileLayout } from '../core/tiff/decodeTile.ts';
 import type { TiffSummary } from '../core/tiff/inspectTiff.ts';
 import type { FileRef, Platform } from '../platform/types.ts';
 import { ImageryError } from './inspectInWorker.ts';
@@ -67,7 +67,7 @@ function cappedDecoders(summary: TiffSummary) {
       };
       return {
         async decode(buffer: ArrayBuffer): Promise<ArrayBuffer> {
-          const values = decodeTile(new Uint8Array(buffer), layout);
+          const values = await decodeTileAsync(new Uint8Array(buffer), layout);
           return values.buffer.byteLength === values.byteLength ? (values.buffer as ArrayBuffer) : (values.slice().buffer as ArrayBuffer);
         },
       };

@@ -1,4 +1,4 @@
-import { composeTile, cutTiles, readWindow, reduceTile, sampleWindow } from './composeTile.ts';
+import { composeTile, cutTiles, decodeBlocks, readWindow, reduceTile, sampleWindow } from './composeTile.ts';
 import type { JobRunner, RenderRequest, RenderResult } from './renderJobs.ts';
 
 /**
@@ -9,6 +9,7 @@ export class InlinePool implements JobRunner {
   async run(request: { payload: RenderRequest; signal?: AbortSignal }): Promise<RenderResult> {
     if (request.signal?.aborted) throw new DOMException('the work was cancelled', 'AbortError');
     const job = request.payload;
+    await decodeBlocks(job);
     if (job.kind === 'sample') return sampleWindow(job);
     if (job.kind === 'window') return readWindow(job);
     if (job.kind === 'cut') return cutTiles(job);

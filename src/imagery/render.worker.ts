@@ -2,7 +2,7 @@
 // The render worker: decodes compressed tiles (with their size capped to what the file
 // declares), does the band math (composite, index, pan-sharpening) and the stretch, and
 // returns finished RGBA tiles as ImageBitmaps, so the UI thread only draws.
-import { composeTile, cutTiles, readWindow, reduceTile, sampleWindow } from './composeTile.ts';
+import { composeTile, cutTiles, decodeBlocks, readWindow, reduceTile, sampleWindow } from './composeTile.ts';
 import type { RenderRequest } from './renderJobs.ts';
 import type { WorkerReply } from './WorkerPool.ts';
 
@@ -15,6 +15,7 @@ scope.onmessage = async (event: MessageEvent<{ id: number; request: RenderReques
   try {
     let result: unknown;
     let transfer: Transferable[] = [];
+    await decodeBlocks(request);
     if (request.kind === 'sample') {
       const sample = sampleWindow(request);
       result = sample;

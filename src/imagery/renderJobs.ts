@@ -1,7 +1,7 @@
 import type { TileLayout } from '../core/tiff/decodeTile.ts';
 import type { StretchLimits } from '../core/render/stretch.ts';
 import type { SharpenMethod } from '../core/render/pansharpen.ts';
-import type { Dtype } from '../core/tiff/tags.ts';
+import type { Dtype, SampleArray } from '../core/tiff/tags.ts';
 
 // The jobs of the render pool and their answers: typed once, shared by the page side
 // (Raster) and the worker.
@@ -12,6 +12,8 @@ export interface EncodedTile {
   layout: TileLayout;
   /** Which sample to take from a pixel-interleaved block (0 for band-separate files). */
   sample: number;
+  /** The decoded block, once the worker has decoded it (never sent). */
+  values?: SampleArray;
 }
 
 /** An encoded block and where its top-left pixel sits in its level. */

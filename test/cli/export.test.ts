@@ -47,6 +47,24 @@ describe('fellfield export', () => {
     expect(readFileSync(join(out, 'labels.site.json'), 'utf8')).toBe(readFileSync(demoSite, 'utf8'));
   });
 
+  it('finds a scheme stored with the site by its name', async () => {
+    // The demo's history with one more event: a scheme stored on the Training sheet.
+    const { readSiteFile } = await import('../../src/core/export/siteFile.ts');
+    const { sealEvent } = await import('../../src/core/ledger/chain.ts');
+    const opened = await readSiteFile(readFileSync(demoSite, 'utf8'), demoSite);
+    const classOf = Object.fromEntries(opened.state.roster.map((e) => [e.code, e.group === 'conifer' ? 'tree' : 'shrub']));
+    const stored = await sealEvent({ kind: 'schemes.set', payload: { schemes: [{ name: 'Trees and shrubs', classOf }], previous: [] }, actor: 'ak', time: '2025-08-01T10:00:00.000Z' }, opened.state.head);
+    const withScheme = join(dir, 'with-scheme.site.json');
+    writeFileSync(withScheme, siteFileText([...opened.events, stored]));
+    const out = join(dir, 'out-stored-scheme');
+    const r = await run(withScheme, '--format', 'geojson', '--out', out, '--scheme', 'Trees and shrubs', '--open', 'leave-out');
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const classes = new Set(JSON.parse(readFileSync(join(out, 'labels.geojson'), 'utf8')).features.map((f: { properties: { class: string } }) => f.properties.class));
+    expect([...classes].sort()).toEqual(['shrub', 'tree']);
+    expect((await run(withScheme, '--format', 'geojson', '--out', out, '--scheme', 'Trees')).stderr).toMatch(/--scheme: unknown scheme 'Trees' \(Trees and shrubs, species, groups/);
+  });
+
   it('exports a GeoPackage with --json, a scheme, folds and pure pixels on the demo grid', async () => {
     const out = join(dir, 'out-gpkg');
     const r = await run(demoSite, '--format', 'gpkg', '--out', out, '--scheme', 'groups', '--folds', '2', '--ms', join(dir, 'demo', 'ms.tif'), '--pixel-rule', 'centre', '--json', '--name', 'demo-labels');

@@ -99,12 +99,32 @@ describe('fellfield folds', () => {
     expect(weights).toBeLessThan(400 * 4);
   });
 
+  it('leaves out, or only counts, the patches within --gap of another fold', async () => {
+    const plain = JSON.parse((await run(patches, '--json')).stdout);
+    const doc = JSON.parse((await run(patches, '--json', '--gap', '3')).stdout);
+    const left = (doc.patches as Row[]).filter((r) => (r.fold as unknown) === 'gap');
+    expect(left.length).toBeGreaterThan(0);
+    expect(doc.gap).toEqual({ distance: 3, action: 'leave-out', within: left.length });
+    const perFold = doc.folds.map((f: { withinGap: number }) => f.withinGap);
+    expect(perFold.reduce((a: number, b: number) => a + b, 0)).toBe(left.length);
+    // What is left keeps the gap: the nearest training patch of each fold is 3 m away or more.
+    for (const f of doc.folds) if (f.minTrainDistance !== null) expect(f.minTrainDistance).toBeGreaterThanOrEqual(3);
+    expect(Math.min(...plain.folds.map((f: { minTrainDistance: number }) => f.minTrainDistance))).toBeLessThan(3);
+    const reported = JSON.parse((await run(patches, '--json', '--gap', '3', '--gap-report')).stdout);
+    expect((reported.patches as Row[]).map((r) => r.fold)).toEqual((plain.patches as Row[]).map((r) => r.fold));
+    expect(reported.gap).toEqual({ distance: 3, action: 'report', within: left.length });
+    const text = (await run(patches, '--gap', '3')).stdout;
+    expect(text).toMatch(/fold 1 .*; \d+ within the gap \(left out, 3 m\);/);
+  });
+
   it('names the file and the problem on bad input, exit 2', async () => {
     const cases: [string[], RegExp][] = [
       [[patches, '--k', '1'], /--k: expected a whole number of 2 or more, got '1'/],
       [[patches, '--block', '0'], /--block: expected a block side in metres/],
       [[patches, '--seed', 'x'], /--seed: expected a whole number/],
       [[patches, '--buffer', '1'], /need --scene/],
+      [[patches, '--gap=-1'], /--gap: expected a distance in metres \(0 or more\), got '-1'/],
+      [[patches, '--gap-report'], /--gap-report needs --gap M/],
       [[patches, '--scheme', write('s.json', '{"name": "x"}')], /s.json: expected \{"name"/],
       [[patches, '--scheme', write('t.json', '{"name": "x", "classOf": {}}')], /t.json: scheme "x" maps no species/],
       [[patches, '--held-out', write('r.geojson', '{"type": "Point", "coordinates": [0, 0]}')], /r.geojson: polygon 0: geometry is a Point, expected Polygon or MultiPolygon/],

@@ -5,7 +5,7 @@ import { withOwnIds } from './importFieldFile.ts';
 import type { Platform } from '../../platform/types.ts';
 import { SiteStore, type StoreOptions } from '../../store/SiteStore.ts';
 import { StorageError } from '../../store/StorageError.ts';
-import type { OpenSite } from '../site.ts';
+import type { MappedSite, OpenSite } from '../site.ts';
 
 // The demo as a stored site. On the first open it is created in IndexedDB from the demo
 // files: its scenes (by name, size and SHA-256 from the manifest), its roster, and the
@@ -24,7 +24,7 @@ interface ManifestFiles {
   files: { name: string; role: string; date?: string; bytes: number; sha256: string }[];
 }
 
-export async function openStoredDemo(platform: Platform, imagery: OpenSite, options: StoreOptions = {}): Promise<SiteStore> {
+export async function openStoredDemo(platform: Platform, imagery: MappedSite, options: StoreOptions = {}): Promise<SiteStore> {
   const store = await openOrCreate(imagery, options);
   try {
     await completeDemo(store, platform, imagery);
@@ -35,7 +35,7 @@ export async function openStoredDemo(platform: Platform, imagery: OpenSite, opti
   }
 }
 
-async function openOrCreate(imagery: OpenSite, options: StoreOptions): Promise<SiteStore> {
+async function openOrCreate(imagery: MappedSite, options: StoreOptions): Promise<SiteStore> {
   try {
     return await SiteStore.open(DEMO_SITE_ID, options);
   } catch (error) {
@@ -52,7 +52,7 @@ async function readDemoBytes(platform: Platform, name: string): Promise<Uint8Arr
 }
 
 /** Commits whichever of the demo's first events are not in the store yet. */
-async function completeDemo(store: SiteStore, platform: Platform, imagery: OpenSite): Promise<void> {
+async function completeDemo(store: SiteStore, platform: Platform, imagery: MappedSite): Promise<void> {
   const time = () => new Date().toISOString();
   const commit = (draft: Omit<EventDraft, 'actor' | 'time'>) => store.commit({ ...draft, actor: FIELD_CREW, time: time() } as EventDraft);
   const state = () => store.state;
@@ -100,7 +100,7 @@ async function completeDemo(store: SiteStore, platform: Platform, imagery: OpenS
 }
 
 /** The demo's imagery joined with its stored site: closing the site closes both. */
-export async function withStoredDemo(platform: Platform, imagery: OpenSite, options: StoreOptions = {}): Promise<OpenSite> {
+export async function withStoredDemo(platform: Platform, imagery: MappedSite, options: StoreOptions = {}): Promise<OpenSite> {
   let store: SiteStore;
   try {
     store = await openStoredDemo(platform, imagery, options);

@@ -2,7 +2,7 @@ import { crsUnits, utmEpsgForLonLat } from '../../core/crs.ts';
 import type { RangeReader } from '../../imagery/Raster.ts';
 import { createRenderPool } from '../../imagery/renderPool.ts';
 import type { FileRef } from '../../platform/types.ts';
-import { openImageryFiles } from '../openImageryFiles.ts';
+import { openImageryFiles, PixelSpaceOffer } from '../openImageryFiles.ts';
 import type { SceneView } from '../site.ts';
 
 // The imagery of a site: one scene per date, each one or two GeoTIFFs (panchromatic and
@@ -47,8 +47,13 @@ export async function openSceneImagery(platform: RangeReader, scenes: SceneFiles
       const site = await openImageryFiles(platform, scene.files, {
         pool, signal,
         onProgress: (p) => onProgress({ label: p.label, fraction: p.fraction === null ? null : (i + p.fraction) / scenes.length }),
+      }).catch((error: unknown) => {
+        // Pixel space is for looking only: a site's patches need map coordinates.
+        if (error instanceof PixelSpaceOffer) throw new Error(`${error.reasons.join('\n')}\nA site keeps its patches in map coordinates, so its imagery must be placed on a map (Open GeoTIFF files… can still show these files in pixel space).`);
+        throw error;
       });
-      if (crsUnits(site.epsg) !== 'metre') {
+      const epsg = site.epsg;
+      if (epsg === null || crsUnits(epsg) !== 'metre') {
         const [x0, y0, x1, y1] = site.extent;
         const utm = utmEpsgForLonLat((x0 + x1) / 2, (y0 + y1) / 2);
         throw new Error(`${names}: in ${site.crsName}, a geographic CRS in degrees; patches are kept in a projected CRS in metres, so reproject the imagery first (for this place e.g. gdalwarp -t_srs EPSG:${utm})`);
@@ -58,7 +63,7 @@ export async function openSceneImagery(platform: RangeReader, scenes: SceneFiles
       }
       const date = scene.date ?? dateOf(site.scenes[0].date);
       if (!date) throw new Error(`${names}: the files record no acquisition date; enter the date of this scene`);
-      opened.push({ ...site, scenes: [{ ...site.scenes[0], date }] });
+      opened.push({ ...site, epsg, scenes: [{ ...site.scenes[0], date }] });
     }
     const extents = opened.map((s) => s.extent);
     return {

@@ -8,11 +8,14 @@ import type { SiteState } from '../../core/site/state.ts';
 import type { Ruling, Tag } from '../../core/site/types.ts';
 import { classBalance, type Balance, type BalanceOptions } from '../../core/training/balance.ts';
 import { foldReport, type FoldReport } from '../../core/training/foldReport.ts';
+import { applyFoldGap, type GapAction } from '../../core/training/foldGap.ts';
 import { assignFolds, type FoldAssignment, type FoldOptions } from '../../core/training/folds.ts';
 import { applyScheme, type Scheme } from '../../core/training/scheme.ts';
+import { describeRule } from '../../core/pixels/rule.ts';
 
 // The training sheet of a site: which patches can train (a settled species), their
-// pure pixels on the multispectral grid, class balance under a scheme, and folds.
+// pure pixels on the multispectral grid, class balance under a scheme, and folds (with
+// an optional gap between them).
 
 export interface TrainingPatch {
   id: string;
@@ -52,6 +55,8 @@ export interface SheetOptions {
   scheme: Scheme;
   balance?: BalanceOptions;
   folds?: FoldOptions;
+  /** Patches nearer than this to a patch of another fold are left out or reported (foldGap.ts). */
+  gap?: { distance: number; action: GapAction };
 }
 
 export interface TrainingSheet {
@@ -72,7 +77,28 @@ export function trainingSheet(set: TrainingSet, grid: RasterGrid, options: Sheet
   const foldPatches = set.patches
     .map((p, i) => ({ id: p.id, cls: classes[i], rings: p.rings, weight: pixels.patches[i].pure }))
     .filter((p): p is { id: string; cls: string; rings: MultiPolygonRings; weight: number } => p.cls !== null);
-  const assignment = assignFolds(foldPatches, options.folds);
-  const folds = foldReport(foldPatches, assignment);
+  const dealt = assignFolds(foldPatches, options.folds);
+  const { assignment, gap } = options.gap?.distance ? applyFoldGap(foldPatches, dealt, options.gap.distance, options.gap.action) : { assignment: dealt, gap: null };
+  const folds = foldReport(foldPatches, assignment, gap);
   return { pixels, balance, assignment, folds, messages: [...pixels.messages, ...balance.warnings, ...assignment.messages] };
+}
+
+/** What the sheet shows, without the per-pixel detail: what a worker hands back. */
+export interface SheetSummary {
+  ruleText: string;
+  balance: Balance;
+  folds: FoldReport;
+  messages: string[];
+}
+
+export interface SheetJob {
+  set: TrainingSet;
+  grid: RasterGrid;
+  options: SheetOptions;
+}
+
+/** The sheet's figures for a job: the training sheet worker runs this, tests run it inline. */
+export function sheetSummary(job: SheetJob): SheetSummary {
+  const sheet = trainingSheet(job.set, job.grid, job.options);
+  return { ruleText: describeRule(job.options.rule), balance: sheet.balance, folds: sheet.folds, messages: sheet.messages };
 }

@@ -28,8 +28,9 @@ renamed into place only when all of them are complete.
   --pass ID         one pass's calls only (default: the consensus of tags and rulings)
   --all-passes      every patch with every tag, the consensus beside them
   --open WHAT       patches with an open disagreement: refuse (default), leave-out, include
-  --scheme NAME     classes: species (default), groups, GROUP (that group's species
-                    apart, the rest as "other"), or a JSON file {"name", "classOf"}
+  --scheme NAME     classes: a scheme stored with the site (made on the Training
+                    sheet) by its name, species (default), groups, GROUP (that group's
+                    species apart, the rest as "other"), or a JSON file {"name", "classOf"}
   --folds K         assign K spatial folds (blocks of --fold-block metres, default 50;
                     --fold-seed N, default 1)
   --ms FILE         the multispectral GeoTIFF whose grid counts pure pixels
@@ -102,7 +103,7 @@ function readSiteText(path: string): string {
 /** A scheme by name over the site's roster, or read from a JSON file. */
 function schemeOf(value: string | undefined, opened: OpenedSite): Scheme | null {
   if (value === undefined) return null;
-  const named = namedSchemes(opened.state.roster);
+  const named = namedSchemes(opened.state.roster, opened.state.schemes);
   const found = named.find((n) => n.name === value);
   if (found) return found.scheme;
   if (!value.endsWith('.json')) {

@@ -3,13 +3,14 @@ import type { MultiPolygonRings } from '../../core/geometry/types.ts';
 import { applyScheme, schemeProblem, type Scheme } from '../../core/training/scheme.ts';
 import { foldReport, type FoldSummary } from '../../core/training/foldReport.ts';
 import { assignFolds, HELD_OUT, type FoldPatch } from '../../core/training/folds.ts';
+import { applyFoldGap, GAP_LEFT_OUT } from '../../core/training/foldGap.ts';
 import { InputError } from '../errors.ts';
 import { openGeoTiffFile } from '../openGeoTiff.ts';
 import { parseVerbArgs, type Verb } from '../verb.ts';
 import { countScenePixels, gridOf, numberOption, readLabels, readText, ruleFromOptions } from './pixels.ts';
 
 const usage = `fellfield folds PATCHES.geojson [--k 5] [--block 50] [--seed 1] [--held-out REGION.geojson]
-                [--scheme SCHEME.json] [--scene MS.tif [--rule R] [--buffer M] [--min-cover F]]
+                [--gap M [--gap-report]] [--scheme SCHEME.json] [--scene MS.tif [--rule R] [--buffer M] [--min-cover F]]
                 [--epsg N] [--json]
 
 Deals patches into k folds for cross-validation that does not flatter: a patch is
@@ -24,6 +25,10 @@ they bring nearest the whole; --seed breaks ties, and the same seed gives the sa
   --seed N            default 1
   --held-out FILE     a GeoJSON Polygon or MultiPolygon (or features of them): patches
                       whose centre lies inside are an independent test set, in no fold
+  --gap M             patches nearer than M metres to a patch of another fold (patches
+                      across a block edge can touch) are left out of every fold, so the
+                      folds keep at least M apart; per fold it says how many
+  --gap-report        keep them in their folds and only count them
   --scheme FILE       JSON {"name": "...", "classOf": {"SPECIES": "class", ...}}: folds
                       are stratified by class; a species the scheme leaves out is named
                       and its patches are left out (default: every species its own class)
@@ -31,8 +36,9 @@ they bring nearest the whole; --seed breaks ties, and the same seed gives the sa
                       instead of by patch counts
   --json              one JSON document: {"patches": [{"id", "species", "class", "fold",
                       "block"}], "folds": [{"fold", "patches", "blocks", "classCounts",
-                      "classWeights", "classShares", "minTrainDistance", "nearestPair"}],
-                      "heldOut", "classShares", "maxShareDeviation", "messages"}
+                      "classWeights", "classShares", "minTrainDistance", "nearestPair",
+                      "withinGap"}], "heldOut", "classShares", "maxShareDeviation", "gap",
+                      "messages"}; a patch left out by the gap has "fold": "gap"
 
 Per fold it reports the class counts and the smallest distance between one of the
 fold's patches and a patch of another fold (what the fold is tested against while the
@@ -85,10 +91,11 @@ function readScheme(path: string): Scheme {
 
 const metres = (d: number | null) => (d === null ? 'n/a' : `${d.toFixed(2)} m`);
 
-function summaryLine(s: FoldSummary): string {
+function summaryLine(s: FoldSummary, gap: string | null): string {
   const counts = Object.entries(s.classCounts).map(([c, n]) => `${c} ${n}`).join(', ');
   const name = s.fold === 'held-out' ? 'held-out' : `fold ${s.fold + 1}`;
-  return `${name.padEnd(9)} ${String(s.patches).padStart(6)} patch(es) in ${String(s.blocks).padStart(4)} block(s); nearest training patch ${metres(s.minTrainDistance)}; ${counts}`;
+  const within = gap ? `; ${s.withinGap} within the gap (${gap})` : '';
+  return `${name.padEnd(9)} ${String(s.patches).padStart(6)} patch(es) in ${String(s.blocks).padStart(4)} block(s); nearest training patch ${metres(s.minTrainDistance)}${within}; ${counts}`;
 }
 
 export const folds: Verb = {
@@ -101,6 +108,8 @@ export const folds: Verb = {
       block: { type: 'string' },
       seed: { type: 'string' },
       'held-out': { type: 'string' },
+      gap: { type: 'string' },
+      'gap-report': { type: 'boolean' },
       scheme: { type: 'string' },
       scene: { type: 'string' },
       rule: { type: 'string' },
@@ -114,6 +123,8 @@ export const folds: Verb = {
     const k = numberOption('k', values.k, (n) => Number.isInteger(n) && n >= 2, 'a whole number of 2 or more') ?? 5;
     const blockSize = numberOption('block', values.block, (n) => n > 0, 'a block side in metres (above 0)') ?? 50;
     const seed = numberOption('seed', values.seed, (n) => Number.isInteger(n) && n >= 0, 'a whole number (0 or more)') ?? 1;
+    const gapM = numberOption('gap', values.gap, (n) => n >= 0, 'a distance in metres (0 or more)') ?? 0;
+    if (values['gap-report'] && values.gap === undefined) throw new InputError('--gap-report needs --gap M');
     const assumeEpsg = numberOption('epsg', values.epsg, (n) => Number.isInteger(n) && n > 0, 'an EPSG code');
     const pixelRuleGiven = values.rule !== undefined || values.buffer !== undefined || values['min-cover'] !== undefined;
     if (pixelRuleGiven && values.scene === undefined) throw new InputError('--rule, --buffer and --min-cover need --scene MS.tif');
@@ -143,9 +154,11 @@ export const folds: Verb = {
     messages.push(...applied.messages);
     const kept = labels.patches.map((p, i) => ({ p, i })).filter(({ i }) => applied.classes[i] !== null);
     const patches: FoldPatch[] = kept.map(({ p, i }) => ({ id: p.id, cls: applied.classes[i]!, rings: p.rings, weight: weights ? weights[i] : 1 }));
-    const assignment = assignFolds(patches, { k, blockSize, seed, heldOut });
+    const dealt = assignFolds(patches, { k, blockSize, seed, heldOut });
+    const { assignment, gap } = gapM > 0 ? applyFoldGap(patches, dealt, gapM, values['gap-report'] ? 'report' : 'leave-out') : { assignment: dealt, gap: null };
     messages.push(...assignment.messages);
-    const report = foldReport(patches, assignment);
+    const report = foldReport(patches, assignment, gap);
+    const gapText = gap ? `${gap.action === 'report' ? 'reported' : 'left out'}, ${gapM} m` : null;
 
     const foldOf = new Map<number, number>(kept.map(({ i }, j) => [i, assignment.fold[j]]));
     const blockOf = new Map<number, number>(kept.map(({ i }, j) => [i, assignment.block[j]]));
@@ -155,7 +168,7 @@ export const folds: Verb = {
       const block = b !== undefined && b >= 0 ? [assignment.blocks[b].col, assignment.blocks[b].row] : null;
       return {
         id: p.id, species: p.species, class: applied.classes[i],
-        fold: f === undefined || f < HELD_OUT ? null : f === HELD_OUT ? 'held-out' : f + 1,
+        fold: f === GAP_LEFT_OUT ? 'gap' : f === undefined || f < HELD_OUT ? null : f === HELD_OUT ? 'held-out' : f + 1,
         block,
       };
     });
@@ -169,6 +182,7 @@ export const folds: Verb = {
         heldOut: report.heldOut,
         classShares: report.classShares,
         maxShareDeviation: report.maxShareDeviation,
+        gap: report.gap,
         messages,
       }));
     } else {
@@ -176,8 +190,8 @@ export const folds: Verb = {
         `${file}: ${patches.length} patch(es) into ${k} folds of ${blockSize} m blocks (seed ${seed}), stratified by ${weights ? 'pure pixels' : 'patches'}${scheme ? ` under scheme "${scheme.name}"` : ''}`,
         `largest gap between a fold's class share and the whole: ${(report.maxShareDeviation * 100).toFixed(1)} percentage points`,
         '',
-        ...report.folds.map(summaryLine),
-        ...(report.heldOut ? [summaryLine(report.heldOut)] : []),
+        ...report.folds.map((f) => summaryLine(f, gapText)),
+        ...(report.heldOut ? [summaryLine(report.heldOut, gapText)] : []),
       ];
       if (messages.length) lines.push('', 'notes', ...messages.map((m) => `  ${m}`));
       out.stdout(lines.join('\n'));

@@ -1,6 +1,6 @@
 import { blockIndex, blockLayout } from '../tiff/blocks.ts';
 import type { ReadRange } from '../tiff/byteSource.ts';
-import { decodeTile } from '../tiff/decodeTile.ts';
+import { decodeTileAsync } from '../tiff/decodeTile.ts';
 import { TiffError } from '../tiff/errors.ts';
 import type { TiffSummary } from '../tiff/inspectTiff.ts';
 import { bytesPerSample, typedArrayOver, type SampleArray } from '../tiff/tags.ts';
@@ -96,7 +96,7 @@ export async function readWindowBands(
           continue;
         }
         const layout = blockLayout(summary, levelIndex, index);
-        const block = decodeTile(await read(level.offsets[index], length), layout);
+        const block = await decodeTileAsync(await read(level.offsets[index], length), layout);
         const samples = layout.samples;
         for (let k = 0; k < pass.outputs.length; k++) {
           const out = outputs[pass.outputs[k]];

@@ -96,7 +96,7 @@ export function patchSpectrum(bands: ArrayLike<number>[], pixels: number[], opti
 }
 
 /** Linear interpolation between order statistics (Hyndman & Fan 1996, definition 7). */
-function quantile(sorted: Float64Array, q: number): number {
+export function quantile(sorted: Float64Array, q: number): number {
   const h = (sorted.length - 1) * q;
   const lo = Math.floor(h);
   const hi = Math.min(sorted.length - 1, lo + 1);

@@ -1,4 +1,5 @@
 import { CodecError, inflateCapped } from './codecs/deflate.ts';
+import { inflateCappedNative } from './codecs/nativeInflate.ts';
 import { lzwDecode } from './codecs/lzw.ts';
 import { packBitsDecode } from './codecs/packbits.ts';
 import { floatDecode, horizontalDecode } from './codecs/predictor.ts';
@@ -33,19 +34,10 @@ export interface TileLayout {
  * fills it with no-data instead of decoding it.
  */
 export function decodeTile(bytes: Uint8Array, layout: TileLayout): SampleArray {
-  const { width, height, samples, dtype, compression, predictor, littleEndian } = layout;
-  const fileName = layout.fileName ?? '';
-  const what = layout.blockName ?? 'a tile';
-  const size = bytesPerSample(dtype);
-  const count = width * height * samples;
-  const expected = count * size;
-  if (!Number.isSafeInteger(expected) || expected <= 0) {
-    throw new TiffError('bad-tile', fileName, `${what} has an impossible declared size (${width} x ${height} x ${samples})`);
-  }
-
+  const expected = declaredBytes(layout);
   let raw: Uint8Array;
   try {
-    switch (compression) {
+    switch (layout.compression) {
       case 1:
         if (bytes.length < expected) throw new CodecError(`holds ${bytes.length} bytes, not the declared ${expected}`);
         raw = bytes.slice(0, expected);
@@ -61,13 +53,54 @@ export function decodeTile(bytes: Uint8Array, layout: TileLayout): SampleArray {
         raw = packBitsDecode(bytes, expected);
         break;
       default:
-        throw new TiffError('unsupported', fileName, `${compressionName(compression)} compression is not supported`);
+        throw new TiffError('unsupported', layout.fileName ?? '', `${compressionName(layout.compression)} compression is not supported`);
     }
   } catch (error) {
-    if (error instanceof CodecError) throw new TiffError('bad-tile', fileName, `${what} ${error.message}`);
-    throw error;
+    throw codecFailure(error, layout);
   }
+  return finishBlock(raw, layout);
+}
 
+/**
+ * decodeTile with deflate inflated by the runtime's own inflater where it has one
+ * (Chromium, Electron, Node: several times faster), under the same cap and with the same
+ * messages. Other compressions decode as in decodeTile.
+ */
+export async function decodeTileAsync(bytes: Uint8Array, layout: TileLayout): Promise<SampleArray> {
+  if (layout.compression !== 8 && layout.compression !== 32946) return decodeTile(bytes, layout);
+  const expected = declaredBytes(layout);
+  let raw: Uint8Array;
+  try {
+    raw = await inflateCappedNative(bytes, expected);
+  } catch (error) {
+    throw codecFailure(error, layout);
+  }
+  return finishBlock(raw, layout);
+}
+
+/** The block's decoded size in bytes, refused when it cannot be. */
+function declaredBytes(layout: TileLayout): number {
+  const { width, height, samples, dtype } = layout;
+  const expected = width * height * samples * bytesPerSample(dtype);
+  if (!Number.isSafeInteger(expected) || expected <= 0) {
+    throw new TiffError('bad-tile', layout.fileName ?? '', `${layout.blockName ?? 'a tile'} has an impossible declared size (${width} x ${height} x ${samples})`);
+  }
+  return expected;
+}
+
+/** A codec's complaint as a TiffError naming the file and the block. */
+function codecFailure(error: unknown, layout: TileLayout): unknown {
+  if (error instanceof CodecError) return new TiffError('bad-tile', layout.fileName ?? '', `${layout.blockName ?? 'a tile'} ${error.message}`);
+  return error;
+}
+
+/** Undoes the predictor and the byte order of a decompressed block: its samples in host order. */
+function finishBlock(decompressed: Uint8Array, layout: TileLayout): SampleArray {
+  const { width, height, samples, dtype, predictor, littleEndian } = layout;
+  const fileName = layout.fileName ?? '';
+  const size = bytesPerSample(dtype);
+  const count = width * height * samples;
+  let raw = decompressed;
   if (predictor === 3) {
     if (dtype !== 'float32' && dtype !== 'float64') {
       throw new TiffError('unsupported', fileName, `the floating-point predictor on ${dtype} samples is not supported`);

@@ -12,10 +12,13 @@ export interface GeoKeyTags {
   ascii: string | null;
 }
 
-/** The GeoKeys for an EPSG code, with the CRS name as its citation where we know it. */
-export function buildGeoKeys(epsg: number): GeoKeyTags {
-  const geographic = isGeographicEpsg(epsg);
-  const citation = crsName(epsg);
+/**
+ * The GeoKeys for an EPSG code, with the CRS name as its citation where we know it; for
+ * null, a user-defined projected CRS (ProjectedCSType 32767) cited as `userCitation`.
+ */
+export function buildGeoKeys(epsg: number | null, userCitation?: string): GeoKeyTags {
+  const geographic = epsg !== null && isGeographicEpsg(epsg);
+  const citation = epsg === null ? (userCitation ?? null) : crsName(epsg);
   const keys: [number, number, number, number][] = [];
   let ascii = '';
   keys.push([GeoKey.GTModelType, 0, 1, geographic ? 2 : 1]);
@@ -28,7 +31,7 @@ export function buildGeoKeys(epsg: number): GeoKeyTags {
     keys.push([GeoKey.GeographicType, 0, 1, epsg]);
     keys.push([GeoKey.GeogAngularUnits, 0, 1, 9102]); // degree
   } else {
-    keys.push([GeoKey.ProjectedCSType, 0, 1, epsg]);
+    keys.push([GeoKey.ProjectedCSType, 0, 1, epsg ?? USER_DEFINED]);
   }
   keys.sort((a, b) => a[0] - b[0]);
   return { directory: [1, 1, 0, keys.length, ...keys.flat()], ascii: ascii || null };

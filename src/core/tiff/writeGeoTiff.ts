@@ -17,8 +17,13 @@ export interface WriteGeoTiffOptions {
   sampleType: SampleType;
   /** Band-sequential: one row-major array of width * height samples per band. */
   bands: BandArray[];
-  /** Projected or geographic EPSG code, written as GeoKeys. */
-  epsg: number;
+  /**
+   * Projected or geographic EPSG code, written as GeoKeys; null for a user-defined
+   * projected CRS (ProjectedCSType 32767), named only by `crsCitation`.
+   */
+  epsg: number | null;
+  /** The citation of a user-defined CRS (GTCitationGeoKey); ignored with an EPSG code. */
+  crsCitation?: string;
   /** x, y of the top-left corner of the top-left pixel. */
   origin: [number, number];
   /** Positive x and y pixel sizes (y runs down the image). */
@@ -79,7 +84,7 @@ export function writeGeoTiff(options: WriteGeoTiffOptions): Uint8Array {
   const planar = bandCount > 1 ? 2 : 1;
   const compression = compressionCodes[o.compression];
   const predictor = !o.predictor || compression === 1 ? 1 : o.sampleType === 'float32' ? 3 : 2;
-  const geo = buildGeoKeys(o.epsg);
+  const geo = buildGeoKeys(o.epsg, o.crsCitation);
   const metadata = buildGdalMetadata(o.bandNames, o.bandWavelengthsNm);
   const noDataText = o.noData === undefined ? null : Number.isNaN(o.noData) ? 'nan' : String(o.noData);
 
@@ -137,8 +142,8 @@ export function writeGeoTiff(options: WriteGeoTiffOptions): Uint8Array {
   return serializeTiff(images, order);
 }
 
-type Resolved = Required<Omit<WriteGeoTiffOptions, 'noData' | 'bandNames' | 'bandWavelengthsNm'>> &
-  Pick<WriteGeoTiffOptions, 'noData' | 'bandNames' | 'bandWavelengthsNm'>;
+type Resolved = Required<Omit<WriteGeoTiffOptions, 'noData' | 'bandNames' | 'bandWavelengthsNm' | 'crsCitation'>> &
+  Pick<WriteGeoTiffOptions, 'noData' | 'bandNames' | 'bandWavelengthsNm' | 'crsCitation'>;
 
 function validate(options: WriteGeoTiffOptions): Resolved {
   const { width, height, sampleType, bands, epsg, origin, pixelSize } = options;
@@ -155,7 +160,7 @@ function validate(options: WriteGeoTiffOptions): Resolved {
     if (!(band instanceof type.ctor)) fail(`band ${i + 1} is not a ${type.ctor.name} for sample type ${sampleType}`);
     if (band.length !== width * height) fail(`band ${i + 1} holds ${band.length} samples, expected ${width * height}`);
   });
-  if (!Number.isInteger(epsg) || epsg < 1024 || epsg > 32766) fail(`epsg must be an EPSG code, got ${epsg}`);
+  if (epsg !== null && (!Number.isInteger(epsg) || epsg < 1024 || epsg > 32766)) fail(`epsg must be an EPSG code or null, got ${epsg}`);
   if (!origin?.every(Number.isFinite) || origin.length !== 2) fail('origin must be two finite numbers');
   if (!pixelSize?.every((v) => Number.isFinite(v) && v > 0) || pixelSize.length !== 2) {
     fail('pixelSize must be two positive numbers');

@@ -2,6 +2,7 @@ import Flatbush from 'flatbush';
 import { extentOfRings } from '../geometry/measure.ts';
 import type { Extent } from '../geometry/types.ts';
 import { HELD_OUT, type FoldAssignment, type FoldPatch } from './folds.ts';
+import { boxGap, type FoldGap, type GapAction } from './foldGap.ts';
 import { outlineDistance } from './outlineDistance.ts';
 
 // What a fold assignment gives: per fold the class counts and shares, and the smallest
@@ -26,6 +27,11 @@ export interface FoldSummary {
   minTrainDistance: number | null;
   /** The pair at that distance. */
   nearestPair: [string | number, string | number] | null;
+  /**
+   * Patches of this set nearer than the gap to a patch of another fold: left out (and
+   * not counted in `patches`) or only reported, as the gap's action says; 0 without a gap.
+   */
+  withinGap: number;
 }
 
 export interface FoldReport {
@@ -35,9 +41,11 @@ export interface FoldReport {
   classShares: Record<string, number>;
   /** Largest |fold share - whole share| over folds and classes. */
   maxShareDeviation: number;
+  /** The gap between folds, when one was asked for. */
+  gap: { distance: number; action: GapAction; within: number } | null;
 }
 
-export function foldReport(patches: readonly FoldPatch[], assignment: FoldAssignment): FoldReport {
+export function foldReport(patches: readonly FoldPatch[], assignment: FoldAssignment, gap: FoldGap | null = null): FoldReport {
   const extents: (Extent | null)[] = patches.map((p) => {
     const e = extentOfRings(p.rings);
     return e[0] <= e[2] && e[1] <= e[3] ? e : null;
@@ -83,6 +91,7 @@ export function foldReport(patches: readonly FoldPatch[], assignment: FoldAssign
       classShares: shares,
       minTrainDistance: nearest ? nearest.distance : null,
       nearestPair: nearest ? [patches[nearest.test].id, patches[nearest.train].id] : null,
+      withinGap: gap ? (f === HELD_OUT ? gap.heldOut : gap.perFold[f]) : 0,
     };
   };
 
@@ -114,12 +123,6 @@ export function foldReport(patches: readonly FoldPatch[], assignment: FoldAssign
     if (f.patches === 0) continue;
     for (const c of classNames) maxShareDeviation = Math.max(maxShareDeviation, Math.abs(f.classShares[c] - classShares[c]));
   }
-  return { folds, heldOut, classShares, maxShareDeviation };
-}
-
-/** Gap between two boxes (0 when they overlap): a lower bound of the outlines' distance. */
-function boxGap(a: Extent, b: Extent): number {
-  const dx = Math.max(0, b[0] - a[2], a[0] - b[2]);
-  const dy = Math.max(0, b[1] - a[3], a[1] - b[3]);
-  return Math.hypot(dx, dy);
+  const within = gap ? gap.within.reduce((sum, w) => sum + w, 0) : 0;
+  return { folds, heldOut, classShares, maxShareDeviation, gap: gap ? { distance: gap.distance, action: gap.action, within } : null };
 }

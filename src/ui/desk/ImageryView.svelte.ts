@@ -37,7 +37,11 @@ export class ImageryView {
   threshold = $state(0.3);
   compare = $state<CompareMode>('none');
   swipe = $state(0.5);
-  /** Stretch per band, by band key ('pan' or 'ms:<0-based band>'). */
+  /**
+   * Stretch per date and band, by `<date index>|<band key>` (band key 'pan' or
+   * 'ms:<0-based band>'): each date keeps its own, so a late-season scene is not shown
+   * through the early one's limits.
+   */
   stretches = $state<Record<string, BandStretch>>({});
   /** Samples as they arrive, by scene and band key. */
   samples = $state.raw<Readonly<Record<string, BandSample>>>({});
@@ -97,8 +101,9 @@ export class ImageryView {
     return (this.compositeBands ?? []).map((b) => `ms:${b}`);
   }
 
-  stretchOf(key: string): BandStretch {
-    return this.stretches[key] ?? { rule: defaultRule, gamma: 1 };
+  /** A band's stretch on a date (by default the date shown): its rule and gamma. */
+  stretchOf(key: string, sceneIndex = this.sceneIndex): BandStretch {
+    return this.stretches[`${sceneIndex}|${key}`] ?? { rule: defaultRule, gamma: 1 };
   }
 
   rasterOf(key: string, scene = this.scene): Raster | null {
@@ -109,11 +114,14 @@ export class ImageryView {
     return this.samples[`${sceneIndex}|${key}`] ?? null;
   }
 
-  /** Display limits of a band under its rule, or null while its sample is being read. */
-  limitsOf(key: string): StretchLimits | null {
-    const sample = this.sampleOf(key);
+  /**
+   * Display limits of a band on a date (by default the date shown) under that date's
+   * rule, from that date's own sample; null while the sample is being read.
+   */
+  limitsOf(key: string, sceneIndex = this.sceneIndex): StretchLimits | null {
+    const sample = this.sampleOf(key, sceneIndex);
     if (!sample) return null;
-    const { rule, gamma } = this.stretchOf(key);
+    const { rule, gamma } = this.stretchOf(key, sceneIndex);
     try {
       return limitsFor(sample, rule, gamma);
     } catch {
@@ -138,7 +146,7 @@ export class ImageryView {
     void this.tableVersion;
     const s = this.site.scenes[scene];
     const limits = (keys: string[]) => {
-      const found = keys.map((k) => this.limitsOf(k));
+      const found = keys.map((k) => this.limitsOf(k, scene));
       return found.every((l) => l !== null) ? (found as StretchLimits[]) : null;
     };
     if (this.display === 'pan') {
@@ -157,15 +165,15 @@ export class ImageryView {
     if (!bands || !l) return null;
     if (this.display === 'sharpened') {
       if (!s.pan) return null;
-      return { kind: 'sharpened', scene, method: this.method, bands, limits: l, gain: this.#gain(bands) };
+      return { kind: 'sharpened', scene, method: this.method, bands, limits: l, gain: this.#gain(bands, scene) };
     }
     return { kind: 'bands', scene, bands, limits: l };
   }
 
-  /** Pan scaled to the composite's mean intensity, from the overview samples. */
-  #gain(bands: number[]): number {
-    const pan = this.sampleOf('pan');
-    const ms = bands.map((b) => this.sampleOf(`ms:${b}`));
+  /** Pan scaled to the composite's mean intensity on a date, from that date's overview samples. */
+  #gain(bands: number[], scene: number): number {
+    const pan = this.sampleOf('pan', scene);
+    const ms = bands.map((b) => this.sampleOf(`ms:${b}`, scene));
     if (!pan || ms.some((s) => !s)) return 1;
     return panGain(pan.mean, ms.reduce((sum, s) => sum + s!.mean, 0) / ms.length);
   }
@@ -221,11 +229,12 @@ export class ImageryView {
     this.problem = this.#indexProblem();
   }
 
-  setStretch(key: string, change: Partial<BandStretch>): void {
-    this.stretches = { ...this.stretches, [key]: { ...this.stretchOf(key), ...change } };
+  /** Changes a band's stretch on a date (by default the date shown); other dates keep theirs. */
+  setStretch(key: string, change: Partial<BandStretch>, sceneIndex = this.sceneIndex): void {
+    this.stretches = { ...this.stretches, [`${sceneIndex}|${key}`]: { ...this.stretchOf(key, sceneIndex), ...change } };
   }
 
-  /** One rule for every band the view shows. */
+  /** One rule for every band the view shows, on the date shown. */
   setRuleForShown(rule: StretchRule): void {
     for (const key of this.stretchedKeys) this.setStretch(key, { rule });
   }
@@ -255,21 +264,26 @@ export class ImageryView {
     this.#viewport = { extent, resolution };
   }
 
-  /** Manual limits per shown band from the 2-98 % of the pixels on screen. */
+  /**
+   * Manual limits per shown band from the 2-98 % of the pixels on screen: for the date
+   * shown, and for the compared date from its own pixels.
+   */
   async stretchToScreen(): Promise<void> {
     const viewport = this.#viewport;
     if (!viewport) return;
+    const dates = [this.sceneIndex];
+    if (this.compare !== 'none' && this.site.scenes.length > 1) dates.push((this.sceneIndex + 1) % this.site.scenes.length);
     try {
-      await Promise.all(this.stretchedKeys.map(async (key) => {
-        const raster = this.rasterOf(key);
+      await Promise.all(dates.flatMap((date) => this.stretchedKeys.map(async (key) => {
+        const raster = this.rasterOf(key, this.site.scenes[date]);
         if (!raster) return;
         const where = screenWindow(raster, viewport.extent, viewport.resolution);
         if (!where) return;
         const sample = await raster.sample(key === 'pan' ? 0 : Number(key.slice(3)), where);
         if (sample.sorted.length === 0) return;
         const min = percentileOfSorted(sample.sorted, 2), max = percentileOfSorted(sample.sorted, 98);
-        this.setStretch(key, { rule: { kind: 'manual', min, max: max > min ? max : min + 1 } });
-      }));
+        this.setStretch(key, { rule: { kind: 'manual', min, max: max > min ? max : min + 1 } }, date);
+      })));
     } catch (error) {
       this.problem = `Could not read the pixels on screen: ${(error as Error).message}`;
     }

@@ -70,7 +70,7 @@ export class ExportDesk {
   }
 
   get schemes(): NamedScheme[] {
-    return namedSchemes(this.deps.source.state.roster);
+    return namedSchemes(this.deps.source.state.roster, this.deps.source.state.schemes);
   }
 
   /** The options as chosen; reading it reads every choice (the page's preview follows it). */

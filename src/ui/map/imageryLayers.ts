@@ -65,6 +65,22 @@ export class ImageryLayers {
     }
   }
 
+  /** Whether any imagery is shown yet (the map is not ready before it is). */
+  get showing(): boolean {
+    return this.#main !== null;
+  }
+
+  /** Where the swipe line is (0-1 of the map's width), or null when the dates are not swiped. */
+  get swipePosition(): number | null {
+    return this.#top && this.#flicker === null && this.#top.getVisible() ? this.#swipe : null;
+  }
+
+  /** Moves the swipe line at once (while it is dragged); the view state follows. */
+  moveSwipe(position: number): void {
+    this.#swipe = position;
+    this.#top?.changed();
+  }
+
   dispose(): void {
     this.#stopFlicker();
     for (const layer of this.#layers.values()) layer.dispose();
@@ -123,19 +139,38 @@ export class ImageryLayers {
     context.clip();
   }
 
-  /** Ends the clip, and draws the swipe line so the edge between the dates is plain to see. */
+  /**
+   * Ends the clip, and draws the swipe line so the edge between the dates is plain to
+   * see, with a grip at its middle that says it can be dragged.
+   */
   #drawSwipeLine(event: RenderEvent): void {
     const context = event.context as CanvasRenderingContext2D | undefined;
     if (!context) return;
     context.restore();
-    const x = Math.round(context.canvas.width * this.#swipe) + 0.5;
+    const { width, height } = context.canvas;
+    const x = Math.round(width * this.#swipe) + 0.5;
+    const y = Math.round(height / 2);
     context.save();
     context.strokeStyle = 'rgba(255,255,255,0.9)';
     context.lineWidth = 1.5;
     context.beginPath();
     context.moveTo(x, 0);
-    context.lineTo(x, context.canvas.height);
+    context.lineTo(x, height);
     context.stroke();
+    context.fillStyle = 'rgba(20,24,28,0.85)';
+    context.beginPath();
+    context.roundRect(x - 9, y - 16, 18, 32, 5);
+    context.fill();
+    context.stroke();
+    context.fillStyle = 'rgba(255,255,255,0.95)';
+    for (const side of [-1, 1]) {
+      context.beginPath();
+      context.moveTo(x + side * 6, y);
+      context.lineTo(x + side * 2, y - 5);
+      context.lineTo(x + side * 2, y + 5);
+      context.closePath();
+      context.fill();
+    }
     context.restore();
   }
 

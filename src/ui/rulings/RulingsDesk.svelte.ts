@@ -4,27 +4,27 @@ import { rulingsQueue, type RulingsQueue } from '../../app/rulings/rulingsQueue.
 import { sendToThirdReader } from '../../app/rulings/sendToThirdReader.ts';
 import { openBlindPassOf } from '../../core/blind/index.ts';
 import type { Finding } from '../../core/checks/findings.ts';
-import { filterQueue, overridesEveryone, queueProgress, speciesPairs, type DisagreementKind, type QueueItem } from '../../core/rulings/index.ts';
+import { filterQueue, itemAtPlace, overridesEveryone, queueProgress, speciesPairs, type DisagreementKind, type QueueItem } from '../../core/rulings/index.ts';
+import { settledPatchesBySpecies } from '../../core/rulings/speciesSpectrum.ts';
+import { namesNoSpecies } from '../../core/blind/answers.ts';
+import type { MultiPolygonRings } from '../../core/geometry/types.ts';
 import { tagsOfPatch, type Ruling, type RulingDecision, type SiteState } from '../../core/site/index.ts';
 import type { SiteStore } from '../../store/SiteStore.ts';
 import { systemClock } from '../../app/site/context.ts';
+import { tellFailure } from '../state/tellFailure.ts';
+import { rulingsPlaceOf, type RulingsPlace, type StatusFilter } from './RulingsPlace.svelte.ts';
 
 // The state of the Rulings page: the queue of the stored site, its filters, the patch
 // in hand, the reason being written and what the last action did. Every decision goes
 // through the ruling use cases; the page only presents and forwards keys and clicks.
+// The filters and the patch in hand live in the site's RulingsPlace, so they outlast the page.
 
-export type StatusFilter = 'open' | 'settled' | 'all';
+export type { StatusFilter };
 
 export class RulingsDesk {
   #raw = $state.raw<SiteState>(null as unknown as SiteState);
   #queue = $derived.by<RulingsQueue>(() => rulingsQueue(this.#raw, this.interpreter));
-  kind = $state<DisagreementKind | ''>('');
-  who = $state('');
-  /** 'A|B' species pair, or '' */
-  pair = $state('');
-  status = $state<StatusFilter>('open');
-  /** the patch in hand; kept by id so a new ruling does not lose the place */
-  patchId = $state<string | null>(null);
+  #settled = $derived.by(() => settledPatchesBySpecies(this.#queue.view));
   reason = $state('');
   /** a decision waiting for its reason (it overrides every call) */
   pending = $state.raw<RulingDecision | null>(null);
@@ -34,10 +34,12 @@ export class RulingsDesk {
   readonly #store: SiteStore;
   readonly #now: () => string;
   readonly #unsubscribe: () => void;
+  readonly #place: RulingsPlace;
 
-  constructor(store: SiteStore, readonly interpreter: string, now: () => string = systemClock) {
+  constructor(store: SiteStore, readonly interpreter: string, now: () => string = systemClock, place: RulingsPlace = rulingsPlaceOf(store)) {
     this.#store = store;
     this.#now = now;
+    this.#place = place;
     this.#raw = store.state;
     this.#unsubscribe = store.subscribe((s) => (this.#raw = s));
   }
@@ -45,6 +47,18 @@ export class RulingsDesk {
   dispose(): void {
     this.#unsubscribe();
   }
+
+  get kind(): DisagreementKind | '' { return this.#place.kind; }
+  set kind(value: DisagreementKind | '') { this.#place.kind = value; }
+  get who(): string { return this.#place.who; }
+  set who(value: string) { this.#place.who = value; }
+  /** 'A|B' species pair, or '' */
+  get pair(): string { return this.#place.pair; }
+  set pair(value: string) { this.#place.pair = value; }
+  get status(): StatusFilter { return this.#place.status; }
+  set status(value: StatusFilter) { this.#place.status = value; }
+  /** the patch in hand; kept by id so a new ruling does not lose the place */
+  get patchId(): string | null { return this.#place.patchId; }
 
   get all(): QueueItem[] {
     return this.#queue.items;
@@ -77,10 +91,9 @@ export class RulingsDesk {
     return this.#raw.roster;
   }
 
-  /** The patch in hand: the chosen one while it is listed, else the first listed. */
+  /** The patch in hand: the chosen one while the queue holds it, else the one now at its place (core/rulings/place.ts). */
   get current(): QueueItem | null {
-    const items = this.items;
-    return items.find((i) => i.patchId === this.patchId) ?? this.#queue.items.find((i) => i.patchId === this.patchId) ?? items[0] ?? null;
+    return itemAtPlace(this.items, this.#queue.items, this.#place);
   }
 
   get position(): number {
@@ -100,6 +113,21 @@ export class RulingsDesk {
     return [...this.#raw.rulings.values()].filter((r) => r.patchId === cur.patchId).sort((a, b) => b.time.localeCompare(a.time) || b.id.localeCompare(a.id));
   }
 
+  /** The species the patch in hand is called or ruled, in call order, for its spectrum's company. */
+  get speciesInvolved(): string[] {
+    const cur = this.current;
+    if (!cur) return [];
+    const named = [...cur.calls.map((c) => c.species), cur.consensus.species ?? ''];
+    const roster = this.#raw.roster.map((e) => e.code);
+    return named.filter((s, i) => named.indexOf(s) === i && !namesNoSpecies(s) && roster.includes(s));
+  }
+
+  /** The outlines of the patches settled as a species. */
+  settledOutlines(species: string): MultiPolygonRings[] {
+    const patches = this.#queue.view.patches;
+    return (this.#settled.get(species) ?? []).map((id) => patches.get(id)!.geometry);
+  }
+
   get findings(): Finding[] {
     const cur = this.current;
     return cur ? this.#queue.findings.filter((f) => f.patches.map(String).includes(cur.patchId)) : [];
@@ -115,15 +143,19 @@ export class RulingsDesk {
     if (!items.length) return;
     const at = this.position;
     const next = at < 0 ? 0 : (at + by + items.length) % items.length;
-    this.patchId = items[next].patchId;
+    this.choose(items[next].patchId);
+  }
+
+  choose(patchId: string): void {
+    this.#hold(patchId);
     this.reason = '';
     this.pending = null;
   }
 
-  choose(patchId: string): void {
-    this.patchId = patchId;
-    this.reason = '';
-    this.pending = null;
+  /** Notes the patch in hand as the place to come back to (before leaving for the desk). */
+  keepPlace(): void {
+    const cur = this.current;
+    if (cur) this.#hold(cur.patchId);
   }
 
   /** Accepts the call of the n-th pass on the patch (0: A, 1: B, ...). */
@@ -203,17 +235,19 @@ export class RulingsDesk {
   #advanceFrom(patchId: string): void {
     const items = this.items;
     const open = items.find((i) => i.patchId !== patchId && !i.settled);
-    this.patchId = open?.patchId ?? patchId;
+    this.#hold(open?.patchId ?? patchId);
+  }
+
+  #hold(patchId: string): void {
+    this.#place.patchId = patchId;
+    const at = this.items.findIndex((i) => i.patchId === patchId);
+    if (at >= 0) this.#place.position = at;
   }
 
   async #run(work: () => Promise<void>): Promise<boolean> {
     this.busy = true;
     try {
-      await work();
-      return true;
-    } catch (error) {
-      this.message = { text: (error as Error).message, problem: true };
-      return false;
+      return await tellFailure(work, (text) => (this.message = { text, problem: true }));
     } finally {
       this.busy = false;
     }

@@ -1,4 +1,5 @@
 import type { OpenSite } from '../../app/site.ts';
+import { PixelSpaceOffer } from '../../app/openImageryFiles.ts';
 import type { Surface } from '../surfaces.ts';
 
 export type Screen = 'start' | 'desk';
@@ -17,14 +18,24 @@ export interface Progress {
   fraction: number | null;
 }
 
+/** A patch sent from another page to the desk (to split or reshape it), and the page to go back to. */
+export interface DeskErrand {
+  patchId: string;
+  from: Surface;
+}
+
 /** What the window shows and the site in hand. Components read it and call its methods. */
 export class Workspace {
   screen = $state<Screen>('start');
   /** Which page of the open site is shown. */
   surface = $state<Surface>('desk');
+  /** The patch another page sent to the desk, while the desk works on it. */
+  errand = $state.raw<DeskErrand | null>(null);
   site = $state.raw<OpenSite | null>(null);
   progress = $state<Progress | null>(null);
   error = $state<string | null>(null);
+  /** Picked files whose CRS cannot be placed on a map: why, and how to open them in pixel space instead. */
+  offer = $state.raw<{ message: string; open: Opener } | null>(null);
 
   #openers: SiteOpeners;
   #adopt: (site: OpenSite) => Promise<OpenSite>;
@@ -45,6 +56,17 @@ export class Workspace {
     return this.openWith('Opening the picked files', (onProgress, signal) => this.#openers.files(onProgress, signal));
   }
 
+  /** Opens the offered files in pixel space (view-only). */
+  acceptOffer(): Promise<void> {
+    const offer = this.offer;
+    this.offer = null;
+    return offer ? this.openWith('Opening the files in pixel space', offer.open) : Promise.resolve();
+  }
+
+  declineOffer(): void {
+    this.offer = null;
+  }
+
   /** Opens a site by any opener (a new site, a stored one, a blind package), with progress and cancel. */
   async openWith(label: string, opener: Opener): Promise<void> {
     const opened = await this.run(label, opener);
@@ -54,6 +76,7 @@ export class Workspace {
     this.site = site;
     this.screen = 'desk';
     this.surface = 'desk';
+    this.errand = null;
   }
 
   /**
@@ -65,6 +88,7 @@ export class Workspace {
     const abort = new AbortController();
     this.#abort = abort;
     this.error = null;
+    this.offer = null;
     this.progress = { label, fraction: null };
     try {
       const result = await work((p) => (this.progress = p), abort.signal);
@@ -74,7 +98,9 @@ export class Workspace {
       }
       return result;
     } catch (error) {
-      if (!abort.signal.aborted) this.error = (error as Error).message;
+      if (abort.signal.aborted) return null;
+      if (error instanceof PixelSpaceOffer) this.offer = { message: error.message, open: (onProgress, signal) => error.open({ onProgress, signal }) };
+      else this.error = (error as Error).message;
       return null;
     } finally {
       if (this.#abort === abort) {
@@ -82,6 +108,24 @@ export class Workspace {
         this.progress = null;
       }
     }
+  }
+
+  /** Shows a page of the open site; leaving the desk ends an errand there. */
+  show(surface: Surface): void {
+    this.surface = surface;
+    if (surface !== 'desk') this.errand = null;
+  }
+
+  /** Opens the desk with a patch in hand, to come back to `from` afterwards. */
+  sendToDesk(patchId: string, from: Surface): void {
+    this.errand = { patchId, from };
+    this.surface = 'desk';
+  }
+
+  /** Back to the page that sent the errand. */
+  endErrand(): void {
+    const errand = this.errand;
+    if (errand) this.show(errand.from);
   }
 
   cancel(): void {

@@ -54,8 +54,7 @@ beforeAll(async () => {
   }));
   const ms = await openRasterFile(site.ms);
   const pan = await openRasterFile(site.pan);
-  const limits = { min: 0, max: 1, gamma: 1 };
-  scene = { date: '2025-07-21', pan: { raster: pan, limits }, ms: { raster: ms, bands: [], naturalColour: { bands: [2, 1, 0], limits: [limits, limits, limits] } } };
+  scene = { date: '2025-07-21', pan: { raster: pan }, ms: { raster: ms, bands: [], naturalColour: { bands: [2, 1, 0] } } };
 });
 
 describe('estimateOffset', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { trainingSet, trainingSheet } from '../../../src/app/training/trainingSheet.ts';
+import { sheetSummary, trainingSet, trainingSheet } from '../../../src/app/training/trainingSheet.ts';
 import type { RasterGrid } from '../../../src/core/geometry/rasterGrid.ts';
 import type { MultiPolygonRings } from '../../../src/core/geometry/types.ts';
 import { emptySiteState, type SiteState } from '../../../src/core/site/state.ts';
@@ -56,5 +56,17 @@ describe('training sheet', () => {
     expect(sheet.folds.folds.map((f) => f.patches).sort()).toEqual([1, 1, 1]);
     for (const f of sheet.folds.folds) expect(f.minTrainDistance).toBeGreaterThanOrEqual(96);
     expect(sheet.messages).toContain('class other lies in only 1 block(s) of 50 m, fewer than the 3 folds: some folds test none of it');
+  });
+
+  it('sums the sheet up for the page with the gap between folds applied', () => {
+    // a (10,10) and b (110,10) are 96 m apart, d (10,210) 196 m from a: a gap of 100 m takes a and b.
+    const summary = sheetSummary({
+      set: trainingSet(site()), grid,
+      options: { rule: { kind: 'centre' }, scheme: { name: 'all', classOf: { ABFI: 'ABFI', SAIN: 'SAIN' } }, folds: { k: 3, blockSize: 50, seed: 1 }, gap: { distance: 100, action: 'leave-out' } },
+    });
+    expect(summary.ruleText).toBe('pixel centre inside the patch');
+    expect(summary.folds.gap).toEqual({ distance: 100, action: 'leave-out', within: 2 });
+    expect(summary.folds.folds.reduce((n, f) => n + f.patches, 0)).toBe(1);
+    expect(summary.messages).toContain('2 patch(es) lie within 100 m of a patch of another fold and are left out of every fold');
   });
 });

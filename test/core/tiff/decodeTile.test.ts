@@ -1,9 +1,10 @@
-import { zlibSync } from 'fflate';
+import { deflateSync, zlibSync } from 'fflate';
 import { describe, expect, it } from 'vitest';
 import { lzwDecode, lzwEncode } from '../../../src/core/tiff/codecs/lzw.ts';
 import { packBitsDecode, packBitsEncode } from '../../../src/core/tiff/codecs/packbits.ts';
 import { floatEncode, horizontalEncode } from '../../../src/core/tiff/codecs/predictor.ts';
-import { decodeTile, type TileLayout } from '../../../src/core/tiff/decodeTile.ts';
+import { decodeTile, decodeTileAsync, type TileLayout } from '../../../src/core/tiff/decodeTile.ts';
+import { hasNativeInflate } from '../../../src/core/tiff/codecs/nativeInflate.ts';
 import { TiffError } from '../../../src/core/tiff/errors.ts';
 import { seeded } from './helpers.ts';
 import { zeroBomb } from './hostile.ts';
@@ -139,5 +140,72 @@ describe('decodeTile on bad tiles', () => {
     const e = catchTiff(() => decodeTile(new Uint8Array(10), layout({ compression: 7 })));
     expect(e.code).toBe('unsupported');
     expect(e.message).toBe('scene.tif: jpeg compression is not supported');
+  });
+});
+
+// The runtime's own inflater (DecompressionStream) must give what the JavaScript one gives,
+// keep the same cap against bombs, and fail in the same words.
+describe('decodeTileAsync (native inflate)', () => {
+  async function catchAsync(run: () => Promise<unknown>): Promise<TiffError> {
+    try {
+      await run();
+    } catch (error) {
+      expect(error).toBeInstanceOf(TiffError);
+      return error as TiffError;
+    }
+    throw new Error('expected a TiffError');
+  }
+  const random = seeded(21);
+  const u16 = Uint16Array.from({ length: 256 * 256 }, (_, i) => (i % 256) * 5 + Math.floor(random() * 40));
+
+  it('runs natively here (Node has DecompressionStream)', () => {
+    expect(hasNativeInflate).toBe(true);
+  });
+
+  it('inflates a 256 x 256 uint16 tile with prediction to the values the JavaScript inflater gives', async () => {
+    const predicted = u16.slice();
+    horizontalEncode(predicted, 256, 256, 1);
+    const tile = layout({ width: 256, height: 256, dtype: 'uint16', compression: 8, predictor: 2 });
+    for (const level of [1, 6, 9] as const) {
+      const bytes = zlibSync(bytesOf(predicted), { level });
+      const fast = await decodeTileAsync(bytes, tile);
+      expect(fast).toBeInstanceOf(Uint16Array);
+      expect(Array.from(fast)).toEqual(Array.from(decodeTile(bytes, tile)));
+      expect(Array.from(fast)).toEqual(Array.from(u16));
+    }
+  });
+
+  it('takes raw deflate without the zlib header, and a zlib stream whose checksum is wrong, as the JavaScript inflater does', async () => {
+    const raw = Uint8Array.from({ length: 256 }, (_, i) => (i * 13) & 0xff);
+    expect(Array.from(await decodeTileAsync(deflateSync(raw), layout({ compression: 8 })))).toEqual(Array.from(raw));
+    const wrongSum = zlibSync(raw);
+    wrongSum[wrongSum.length - 1] ^= 0xff;
+    expect(Array.from(await decodeTileAsync(wrongSum, layout({ compression: 8 })))).toEqual(Array.from(raw));
+  });
+
+  it('refuses a deflate bomb after one step, in the same words and without allocating it', async () => {
+    const bomb = zeroBomb(2048);
+    const before = process.memoryUsage().arrayBuffers;
+    const e = await catchAsync(() => decodeTileAsync(bomb, layout({ compression: 8 })));
+    expect(e.code).toBe('bad-tile');
+    expect(e.message).toBe('scene.tif: tile 5 of the full image inflates past its declared 256 bytes');
+    expect(process.memoryUsage().arrayBuffers - before).toBeLessThan(256 * 1024 * 1024);
+  });
+
+  it('names a short, cut or garbled stream as the JavaScript inflater does', async () => {
+    const short = zlibSync(new Uint8Array(100));
+    expect((await catchAsync(() => decodeTileAsync(short, layout({ compression: 8 })))).message).toBe(
+      'scene.tif: tile 5 of the full image inflates to 100 bytes, not the declared 256',
+    );
+    const whole = zlibSync(Uint8Array.from({ length: 256 }, (_, i) => (i * 7) & 0xff));
+    const cut = whole.subarray(0, whole.length - 12);
+    expect((await catchAsync(() => decodeTileAsync(cut, layout({ compression: 8 })))).message).toBe(catchTiff(() => decodeTile(cut, layout({ compression: 8 }))).message);
+    const garbled = new Uint8Array([0x78, 0x9c, 0xff, 0xff, 0xff]);
+    expect((await catchAsync(() => decodeTileAsync(garbled, layout({ compression: 8 })))).code).toBe('bad-tile');
+  });
+
+  it('decodes other compressions as decodeTile does', async () => {
+    const rgb = Uint8Array.from({ length: 256 }, (_, i) => (i * 11) & 0xff);
+    expect(Array.from(await decodeTileAsync(lzwEncode(rgb), layout({ compression: 5 })))).toEqual(Array.from(rgb));
   });
 });

@@ -67,6 +67,14 @@ describe('writeGeoTiff read back by geotiff.js', () => {
     expect(image.getGeoKeys()?.GeographicTypeGeoKey).toBe(4326);
   });
 
+  it('writes a user-defined projected CRS as ProjectedCSTypeGeoKey 32767 with its citation (GeoTIFF 1.1, OGC 19-008r4: 32767 is user-defined)', async () => {
+    const [image] = await readAll(writeGeoTiff({ ...options('uint8'), epsg: null, crsCitation: 'Local mine grid' }));
+    expect(image.getGeoKeys()?.GTModelTypeGeoKey).toBe(1);
+    expect(image.getGeoKeys()?.ProjectedCSTypeGeoKey).toBe(32767);
+    expect(image.getGeoKeys()?.GTCitationGeoKey).toBe('Local mine grid');
+    expect(image.getOrigin()).toEqual([612000, 5143000, 0]);
+  });
+
   it('writes band-separate planes, deflate with predictor by default, and overview IFDs as reduced resolution', async () => {
     const images = await readAll(writeGeoTiff(options('uint16')));
     const main = images[0].getFileDirectory();

@@ -73,6 +73,8 @@ export function attachPatchEditing(map: Map, desk: PatchDesk, looks: SpeciesLook
   const goTo = (id: string) => {
     const geometry = patches.feature(id)?.getGeometry();
     if (!geometry) return;
+    // The map may have just come out from behind another page: read its size first.
+    map.updateSize();
     const extent = geometry.getExtent();
     const span = Math.max(FOCUS_SPAN_M, getWidth(extent) * 3, getHeight(extent) * 3);
     const [cx, cy] = getCenter(extent);
