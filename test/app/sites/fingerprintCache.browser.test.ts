@@ -3,8 +3,9 @@ import { StoredFingerprints } from '../../../src/app/sites/fingerprintCache.ts';
 
 // The fingerprints kept on this machine, in real IndexedDB in Chromium: kept by name, size
 // and modification time across instances (a later page), nothing kept for a file with no
-// time, and a value that is not a SHA-256 never handed back. The digests are SHA-256 of
-// "abc" and of "" (FIPS 180-4 examples; NIST CSRC example values).
+// time, and a value that is not a SHA-256 never handed back. The cache computes nothing;
+// the two digests kept are SHA-256 of "abc" (NIST FIPS PUB 180-2, Appendix B.1) and of the
+// empty message (from memory).
 
 const ABC = 'ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad';
 const EMPTY = 'e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855';
