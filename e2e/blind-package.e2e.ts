@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { openApp, screenshot, type Session, patchCount } from './browser.ts';
+import { noFilePicker } from './filePickers.ts';
 
 // A blind pass carried between two machines, each a Chromium profile of its own with
 // real IndexedDB: machine A starts a pass on the demo and saves its package; machine B
@@ -86,7 +87,7 @@ describe('a blind package between two machines', () => {
   });
 
   it('machine B opens the package, gives the imagery it names, and calls every patch blind', async () => {
-    b = await openApp({ path: '?screen=start' });
+    b = await openApp({ path: '?screen=start', initScript: noFilePicker }); // the imagery is picked through a file input
     const { page } = b;
     await noSaveDialog(page);
     await pick(page, () => page.click('button:has-text("Open a blind package")'), [packagePath]);

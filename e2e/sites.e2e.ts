@@ -1,40 +1,27 @@
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { baseUrl, openApp, screenshot, type Session, patchCount as patchCountOf } from './browser.ts';
 import { layerCanvasStats } from './canvasStats.ts';
-import { writeGeoTiff } from '../src/core/tiff/writeGeoTiff.ts';
+import { noFilePicker } from './filePickers.ts';
+import { sceneFiles } from './sceneFiles.ts';
 
 // A site of the user's own, end to end in Chromium with real IndexedDB and real GeoTIFF
 // files: created from Start (imagery, name, a copy of the demo roster, a new profile),
 // a patch drawn and tagged; then reopened from the list by picking the files again, which
 // are checked by SHA-256; a changed file is refused by name, and the site still opens
 // with what matched, or without imagery. A scene in longitude and latitude is refused.
+// The page has no File System Access file picker here, as in browsers without it, so the
+// files are picked again on every open (e2e/reopen.e2e.ts opens with the picker's handles).
 
 const dir = mkdtempSync(join(tmpdir(), 'fellfield-sites-'));
 const SIZE = 600;
 let session: Session;
 let page: Page;
 
-function scene(epsg: number, origin: [number, number], pixel: number, seed: number) {
-  const pan = new Uint16Array(SIZE * SIZE);
-  for (let i = 0; i < pan.length; i++) {
-    const x = i % SIZE, y = Math.floor(i / SIZE);
-    pan[i] = 400 + Math.round(250 * Math.sin((x + seed) / 37) * Math.cos(y / 23)) + ((x * 7 + y * 3) % 40);
-  }
-  const m = SIZE / 4;
-  const bands = [0, 1, 2, 3].map((b) => {
-    const band = new Uint16Array(m * m);
-    for (let i = 0; i < band.length; i++) band[i] = 300 + b * 120 + Math.round(200 * Math.sin(((i % m) + b * 9) / 11) * Math.cos(Math.floor(i / m) / 7));
-    return band;
-  });
-  return {
-    pan: Buffer.from(writeGeoTiff({ width: SIZE, height: SIZE, sampleType: 'uint16', bands: [pan], epsg, origin, pixelSize: [pixel, pixel] })),
-    ms: Buffer.from(writeGeoTiff({ width: m, height: m, sampleType: 'uint16', bands, epsg, origin, pixelSize: [pixel * 4, pixel * 4], bandNames: ['blue', 'green', 'red', 'nir'], bandWavelengthsNm: [480, 545, 660, 830] })),
-  };
-}
+const scene = (epsg: number, origin: [number, number], pixel: number, seed: number) => sceneFiles(SIZE, epsg, origin, pixel, seed);
 
 const paths = { pan: join(dir, 'cirque-pan.tif'), ms: join(dir, 'cirque-ms.tif'), changed: join(dir, 'changed', 'cirque-pan.tif'), geoPan: join(dir, 'lonlat-pan.tif') };
 
@@ -68,8 +55,10 @@ beforeAll(async () => {
   const { mkdirSync } = await import('node:fs');
   mkdirSync(join(dir, 'changed'));
   writeFileSync(paths.changed, changed);
+  // another time than the good file's, as a file changed later has (never the same millisecond)
+  utimesSync(paths.changed, new Date(), new Date(Date.now() + 60_000));
   writeFileSync(paths.geoPan, scene(4326, [12.5, 47.3], 0.00001, 3).pan);
-  session = await openApp({ path: '?screen=start' });
+  session = await openApp({ path: '?screen=start', initScript: noFilePicker });
   page = session.page;
 });
 afterAll(async () => {

@@ -102,7 +102,11 @@ export function createAppFilesHandlers(dir: string, fs: AppFilesFs = nodeFs): Ap
   };
 }
 
-async function writeAtomically(fs: AppFilesFs, dir: string, name: string, data: Uint8Array | string): Promise<void> {
+/**
+ * Replaces `dir/name` atomically (see the top of this file): the old content or the new,
+ * never a mix; a failure is a PlatformError naming the file. Makes `dir` when missing.
+ */
+export async function writeAtomically(fs: AppFilesFs, dir: string, name: string, data: Uint8Array | string): Promise<void> {
   const final = path.join(dir, name);
   const temporary = path.join(dir, `.${name}.${randomBytes(6).toString('hex')}.partial`);
   let file: nodeFs.FileHandle | undefined;

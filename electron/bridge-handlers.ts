@@ -9,6 +9,7 @@ import { PlatformError } from '../src/platform/errors.ts';
 import { checkRangeArguments } from '../src/platform/range.ts';
 import type { FileRef } from '../src/platform/types.ts';
 import { createAppFilesHandlers } from './app-files.ts';
+import { createImageryMemoryHandlers } from './imagery-memory.ts';
 import { findDemoFile } from './policy/demo-lookup.ts';
 import { readFileRange } from './read-file-range.ts';
 import type { FileHandleRegistry } from './policy/file-handles.ts';
@@ -31,6 +32,10 @@ export interface BridgeDependencies {
   showSaveDialog(suggestedName: string): Promise<string | undefined>;
   /** The folder of the app's own files (see electron/app-files.ts). */
   appFilesDir: string;
+  /** The folder of the imagery memory (see electron/imagery-memory.ts); never the app files' folder. */
+  imageryMemoryDir: string;
+  /** Where a damaged imagery memory is reported. */
+  log?(message: string): void;
 }
 
 export type BridgeHandlers = { [K in ChannelKey]: (payload: unknown) => Promise<Response<K>> };
@@ -38,6 +43,7 @@ export type BridgeHandlers = { [K in ChannelKey]: (payload: unknown) => Promise<
 export function createBridgeHandlers(deps: BridgeDependencies): BridgeHandlers {
   return {
     ...createAppFilesHandlers(deps.appFilesDir),
+    ...createImageryMemoryHandlers(deps.imageryMemoryDir, deps.registry, { log: deps.log }),
 
     async pickFiles(payload) {
       const options = parsePickOptions(payload);
@@ -46,7 +52,7 @@ export function createBridgeHandlers(deps: BridgeDependencies): BridgeHandlers {
       for (const chosen of paths.slice(0, options.multiple ? paths.length : 1)) {
         const info = await stat(chosen).catch(() => undefined);
         if (!info?.isFile()) throw new PlatformError('not-found', 'is not a readable file', chosen.split(/[/\\]/).pop());
-        picked.push(deps.registry.add(chosen, info.size, 'picked'));
+        picked.push(deps.registry.add(chosen, info.size, 'picked', info.mtimeMs));
       }
       return picked;
     },

@@ -9,6 +9,7 @@ import { CHANNELS, type ChannelKey } from '../src/platform/channels.ts';
 import { createAppProtocolHandler } from './app-protocol.ts';
 import { appFilesDir, sweepPartials } from './app-files.ts';
 import { createBridgeHandlers, createBridgeRouter } from './bridge-handlers.ts';
+import { imageryMemoryDir } from './imagery-memory.ts';
 import { APP_ENTRY_URL, APP_SCHEME, mayLoad, mayNavigate, windowOpenDecision } from './policy/app-origin.ts';
 import { FileHandleRegistry } from './policy/file-handles.ts';
 import { mayGrantPermission, secureWebPreferences } from './policy/permissions.ts';
@@ -30,6 +31,7 @@ app.enableSandbox();
 
 let mainWindow: BrowserWindow | undefined;
 const ownFiles = appFilesDir(app.getPath('userData'));
+const memoryDir = imageryMemoryDir(app.getPath('userData'));
 const registry = new FileHandleRegistry();
 
 function frameIdentity(frame: WebFrameMain | null | undefined): FrameIdentity | undefined {
@@ -44,6 +46,8 @@ function installBridge(): void {
   const handlers = createBridgeHandlers({
     registry,
     appFilesDir: ownFiles,
+    imageryMemoryDir: memoryDir,
+    log,
     demoDir, // a missing folder is reported on first use, with the command that makes it
     async showOpenDialog(request) {
       if (!mainWindow) return [];
@@ -129,8 +133,8 @@ void app.whenReady().then(async () => {
     return;
   }
   // Writes cut short by a crash left temporary files; the files they were replacing are whole.
-  const swept = await sweepPartials(ownFiles);
-  if (swept.length) log(`removed ${swept.length} unfinished write(s) from ${ownFiles}`);
+  const swept = [...await sweepPartials(ownFiles), ...await sweepPartials(memoryDir)];
+  if (swept.length) log(`removed ${swept.length} unfinished write(s) from ${ownFiles} and ${memoryDir}`);
   installSessionPolicy();
   installBridge();
   createWindow();

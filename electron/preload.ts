@@ -14,6 +14,8 @@ const bridge: BridgeApi = {
   appFileRead: (request) => ipcRenderer.invoke(CHANNELS.appFileRead, request),
   appFileList: (request) => ipcRenderer.invoke(CHANNELS.appFileList, request),
   appFileRemove: (request) => ipcRenderer.invoke(CHANNELS.appFileRemove, request),
+  rememberImagery: (request) => ipcRenderer.invoke(CHANNELS.rememberImagery, request),
+  recallImagery: (request) => ipcRenderer.invoke(CHANNELS.recallImagery, request),
 };
 
 contextBridge.exposeInMainWorld(BRIDGE_GLOBAL, bridge);

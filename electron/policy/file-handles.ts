@@ -11,22 +11,29 @@ export interface FileHandle {
   ref: FileRef;
   path: string;
   source: 'picked' | 'demo';
+  /** the file's modification time as the system gave it when it was entered (ms, with its fraction) */
+  mtimeMs?: number;
 }
 
 export class FileHandleRegistry {
   readonly #byId = new Map<string, FileHandle>();
   readonly #idByPath = new Map<string, string>();
 
-  /** Enters a file and returns its reference; the same path keeps the same id. */
-  add(absolutePath: string, size: number, source: FileHandle['source']): FileRef {
+  /**
+   * Enters a file and returns its reference; the same path keeps the same id. `mtimeMs`
+   * (picked files) is kept, and handed out rounded as the reference's `modified`.
+   */
+  add(absolutePath: string, size: number, source: FileHandle['source'], mtimeMs?: number): FileRef {
     const known = this.#idByPath.get(absolutePath);
     const existing = known ? this.#byId.get(known) : undefined;
+    const modified = mtimeMs === undefined ? {} : { modified: Math.round(mtimeMs) };
     if (existing && existing.source === source) {
-      existing.ref = { ...existing.ref, size };
+      existing.ref = { id: existing.ref.id, name: existing.ref.name, size, ...modified };
+      existing.mtimeMs = mtimeMs;
       return { ...existing.ref };
     }
-    const ref: FileRef = { id: randomUUID(), name: path.basename(absolutePath), size };
-    this.#byId.set(ref.id, { ref, path: absolutePath, source });
+    const ref: FileRef = { id: randomUUID(), name: path.basename(absolutePath), size, ...modified };
+    this.#byId.set(ref.id, { ref, path: absolutePath, source, mtimeMs });
     this.#idByPath.set(absolutePath, ref.id);
     return { ...ref };
   }

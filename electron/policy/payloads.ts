@@ -4,14 +4,17 @@
 
 import { checkAppFileName } from '../../src/platform/app-file-name.ts';
 import {
-  MAX_APP_FILE_BYTES, MAX_RANGE_BYTES, type AppFileNameRequest, type AppFileReadRequest, type AppFileWriteRequest,
-  type DemoFileRequest, type ReadRangeRequest, type SaveFileRequest,
+  MAX_APP_FILE_BYTES, MAX_RANGE_BYTES, MAX_REMEMBERED_FILES, MAX_SITE_ID, type AppFileNameRequest, type AppFileReadRequest,
+  type AppFileWriteRequest, type DemoFileRequest, type ReadRangeRequest, type RecallImageryRequest, type RememberImageryRequest,
+  type SaveFileRequest,
 } from '../../src/platform/channels.ts';
 import { PlatformError } from '../../src/platform/errors.ts';
 import { checkRangeArguments } from '../../src/platform/range.ts';
 import type { PickOptions } from '../../src/platform/types.ts';
 
 const EXTENSION = /^[A-Za-z0-9]{1,16}$/;
+/** A site id: printable ASCII without spaces (ids are made by the app: 'site-<uuid>', 'blind-pkg-…', 'demo'). */
+const SITE_ID = /^[\x21-\x7e]+$/;
 const MAX_SAVE_BYTES = 2 * 1024 * 1024 * 1024;
 
 function bad(message: string): never {
@@ -96,4 +99,27 @@ export function parseAppFileRead(value: unknown): AppFileReadRequest {
 export function parseNothing(value: unknown): Record<string, never> {
   if (value !== undefined && value !== null && Object.keys(record(value, 'request')).length > 0) bad('this request takes no fields');
   return {};
+}
+
+function siteId(value: unknown, what: string): string {
+  if (typeof value !== 'string' || value.length === 0 || value.length > MAX_SITE_ID || !SITE_ID.test(value)) {
+    bad(`${what}: siteId must be a site's id (printable, no spaces, at most ${MAX_SITE_ID} characters)`);
+  }
+  return value;
+}
+
+export function parseRememberImagery(value: unknown): RememberImageryRequest {
+  const v = record(value, 'imagery to remember');
+  const id = siteId(v.siteId, 'imagery to remember');
+  if (!Array.isArray(v.ids) || v.ids.length > MAX_REMEMBERED_FILES) bad(`imagery to remember: ids must be a list of at most ${MAX_REMEMBERED_FILES}`);
+  const ids = v.ids.map((x) => {
+    if (typeof x !== 'string' || x.length === 0 || x.length > 100) bad('imagery to remember: every id must be a file reference handed out before');
+    return x;
+  });
+  return { siteId: id, ids };
+}
+
+export function parseRecallImagery(value: unknown): RecallImageryRequest {
+  const v = record(value, 'imagery to recall');
+  return { siteId: siteId(v.siteId, 'imagery to recall') };
 }

@@ -42,6 +42,8 @@ export interface OpenSite {
   fieldPolygons: FieldPolygons;
   /** Things the user should know that did not stop the site opening (a band table that does not fit, a raster left out). */
   notes?: string[];
+  /** Plain facts about how the site opened that are no problem (how its imagery was checked). */
+  facts?: string[];
   /** The stored site (patches, tags, ledger) when the imagery belongs to one. */
   store?: SiteStore;
   /** The copy of the stored site on disk, kept while it is open (see app/site/diskCopySession.ts). */

@@ -4,7 +4,7 @@
 // process boundary as plain data, because Electron flattens thrown errors to text.
 
 import type { PlatformErrorCode } from './errors.ts';
-import type { AppFileInfo, FileRef, PickOptions } from './types.ts';
+import type { AppFileInfo, FileRef, PickOptions, RecalledFile } from './types.ts';
 
 /** Channel names, one per bridge call. */
 export const CHANNELS = {
@@ -16,6 +16,8 @@ export const CHANNELS = {
   appFileRead: 'fellfield:app-file-read',
   appFileList: 'fellfield:app-file-list',
   appFileRemove: 'fellfield:app-file-remove',
+  rememberImagery: 'fellfield:remember-imagery',
+  recallImagery: 'fellfield:recall-imagery',
 } as const;
 
 export type ChannelKey = keyof typeof CHANNELS;
@@ -51,6 +53,16 @@ export interface AppFileNameRequest {
   name: string;
 }
 
+/** Keep these picked files (by their ids) as the site's imagery. */
+export interface RememberImageryRequest {
+  siteId: string;
+  ids: string[];
+}
+
+export interface RecallImageryRequest {
+  siteId: string;
+}
+
 /** Request and response payload of each channel. */
 export interface ChannelPayloads {
   pickFiles: { request: PickOptions; response: FileRef[] };
@@ -61,6 +73,8 @@ export interface ChannelPayloads {
   appFileRead: { request: AppFileReadRequest; response: Uint8Array | null };
   appFileList: { request: Record<string, never>; response: AppFileInfo[] };
   appFileRemove: { request: AppFileNameRequest; response: null };
+  rememberImagery: { request: RememberImageryRequest; response: null };
+  recallImagery: { request: RecallImageryRequest; response: RecalledFile[] };
 }
 
 export type Request<K extends ChannelKey> = ChannelPayloads[K]['request'];
@@ -87,3 +101,9 @@ export const MAX_RANGE_BYTES = 64 * 1024 * 1024;
 
 /** The largest app file written or read whole in one call (a site copy, a pack of tiles). */
 export const MAX_APP_FILE_BYTES = 1024 * 1024 * 1024;
+
+/** The most files one site's imagery memory keeps (a site has a few dates of two files each). */
+export const MAX_REMEMBERED_FILES = 64;
+
+/** The longest site id the imagery memory takes. */
+export const MAX_SITE_ID = 200;

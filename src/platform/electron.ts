@@ -5,18 +5,20 @@ import type { BridgeApi, BridgeResult } from './channels.ts';
 import { PlatformError, throwIfAborted } from './errors.ts';
 import { checkAppFileName } from './app-file-name.ts';
 import { checkRangeArguments } from './range.ts';
-import type { AppFileInfo, AppFiles, FileRef, PickOptions, Platform } from './types.ts';
+import type { AppFileInfo, AppFiles, FileRef, ImageryMemory, PickOptions, Platform, RecalledFile } from './types.ts';
 
 export class ElectronPlatform implements Platform {
   readonly kind = 'electron';
   /** The desktop app always has its own folder; there is nothing to grant. */
   readonly folderGrant = null;
+  readonly imageryMemory: ImageryMemory;
   readonly #bridge: BridgeApi;
   readonly #files: AppFiles;
 
   constructor(bridge: BridgeApi) {
     this.#bridge = bridge;
     this.#files = new BridgeAppFiles(bridge);
+    this.imageryMemory = new BridgeImageryMemory(bridge);
   }
 
   async appFiles(): Promise<AppFiles> {
@@ -24,7 +26,9 @@ export class ElectronPlatform implements Platform {
   }
 
   async pickFiles(options: PickOptions): Promise<FileRef[]> {
-    return unwrap(await this.#bridge.pickFiles({ ...options, extensions: [...options.extensions] }));
+    // Every picked file can be remembered here: the main process keeps its path.
+    const { title, extensions, multiple } = options;
+    return unwrap(await this.#bridge.pickFiles({ title, extensions: [...extensions], multiple }));
   }
 
   async readRange(file: FileRef, offset: number, length: number, signal?: AbortSignal): Promise<Uint8Array> {
@@ -71,6 +75,23 @@ class BridgeAppFiles implements AppFiles {
 
   async remove(name: string): Promise<void> {
     unwrap(await this.#bridge.appFileRemove({ name: checkAppFileName(name) }));
+  }
+}
+
+/** The imagery memory kept by the main process: files named by id both ways, never by path. */
+class BridgeImageryMemory implements ImageryMemory {
+  readonly #bridge: BridgeApi;
+
+  constructor(bridge: BridgeApi) {
+    this.#bridge = bridge;
+  }
+
+  async remember(siteId: string, files: FileRef[]): Promise<void> {
+    unwrap(await this.#bridge.rememberImagery({ siteId, ids: files.map((f) => f.id) }));
+  }
+
+  async recall(siteId: string): Promise<RecalledFile[]> {
+    return unwrap(await this.#bridge.recallImagery({ siteId }));
   }
 }
 

@@ -8,36 +8,30 @@
 // for: then the user chooses the same folder again and the copies in it are found.
 
 import { DirectoryAppFiles } from './directory-files.ts';
+import { handlePermission } from './handle-permission.ts';
+import { KeyValueStore } from './idb-keyval.ts';
 import type { AppFiles, FolderGrant, FolderState } from './types.ts';
 
 /** showDirectoryPicker's shape (WICG File System Access). */
 export type DirectoryPicker = (options?: { id?: string; mode?: 'read' | 'readwrite'; startIn?: string }) => Promise<FileSystemDirectoryHandle>;
 
-type Permission = 'granted' | 'denied' | 'prompt';
-interface PermissionMethods {
-  queryPermission?(descriptor: { mode: 'readwrite' }): Promise<Permission>;
-  requestPermission?(descriptor: { mode: 'readwrite' }): Promise<Permission>;
-}
-
-const DB_NAME = 'fellfield-app-folder';
-const STORE = 'handles';
 const KEY = 'folder';
 
 export class BrowserFolderGrant implements FolderGrant {
   readonly #picker: DirectoryPicker;
-  readonly #indexedDB: IDBFactory | undefined;
+  readonly #kept: KeyValueStore<FileSystemDirectoryHandle>;
   #handle: FileSystemDirectoryHandle | null | undefined; // undefined: not looked up yet
   #files: { handle: FileSystemDirectoryHandle; files: DirectoryAppFiles } | null = null;
 
   constructor(picker: DirectoryPicker, indexedDB: IDBFactory | undefined = globalThis.indexedDB) {
     this.#picker = picker;
-    this.#indexedDB = indexedDB;
+    this.#kept = new KeyValueStore('fellfield-app-folder', 'handles', indexedDB);
   }
 
   async state(): Promise<FolderState> {
     const handle = await this.#load();
     if (!handle) return { state: 'none' };
-    return (await permission(handle, 'query')) === 'granted' ? { state: 'ready', name: handle.name } : { state: 'ask', name: handle.name };
+    return (await handlePermission(handle, 'query', 'readwrite')) === 'granted' ? { state: 'ready', name: handle.name } : { state: 'ask', name: handle.name };
   }
 
   async choose(): Promise<FolderState> {
@@ -48,7 +42,7 @@ export class BrowserFolderGrant implements FolderGrant {
       if ((error as DOMException)?.name === 'AbortError') return this.state(); // the user cancelled: nothing changes
       throw new Error(`The folder could not be chosen: ${(error as Error).message}`, { cause: error });
     }
-    if ((await permission(handle, 'query')) !== 'granted') await permission(handle, 'request');
+    if ((await handlePermission(handle, 'query', 'readwrite')) !== 'granted') await handlePermission(handle, 'request', 'readwrite');
     this.#handle = handle;
     await this.#save(handle);
     return this.state();
@@ -56,7 +50,7 @@ export class BrowserFolderGrant implements FolderGrant {
 
   async allowAgain(): Promise<FolderState> {
     const handle = await this.#load();
-    if (handle) await permission(handle, 'request');
+    if (handle) await handlePermission(handle, 'request', 'readwrite');
     return this.state();
   }
 
@@ -71,7 +65,7 @@ export class BrowserFolderGrant implements FolderGrant {
   async #load(): Promise<FileSystemDirectoryHandle | null> {
     if (this.#handle !== undefined) return this.#handle;
     try {
-      this.#handle = await withStore(this.#indexedDB, 'readonly', (store) => store.get(KEY)) as FileSystemDirectoryHandle | null ?? null;
+      this.#handle = (await this.#kept.get(KEY)) ?? null;
     } catch {
       this.#handle = null; // no storage to remember it in: the user chooses again
     }
@@ -80,39 +74,6 @@ export class BrowserFolderGrant implements FolderGrant {
 
   async #save(handle: FileSystemDirectoryHandle): Promise<void> {
     // Not remembered (storage refused): the folder still serves this visit.
-    await withStore(this.#indexedDB, 'readwrite', (store) => store.put(handle, KEY)).catch(() => undefined);
+    await this.#kept.put(KEY, handle).catch(() => undefined);
   }
-}
-
-async function permission(handle: FileSystemDirectoryHandle, how: 'query' | 'request'): Promise<Permission> {
-  const methods = handle as FileSystemDirectoryHandle & PermissionMethods;
-  const call = how === 'query' ? methods.queryPermission : methods.requestPermission;
-  if (!call) return 'granted'; // a browser without the permission methods gives handles their access outright
-  try {
-    return await call.call(handle, { mode: 'readwrite' });
-  } catch {
-    return how === 'query' ? 'prompt' : 'denied'; // e.g. a request without a click
-  }
-}
-
-function withStore<T>(idb: IDBFactory | undefined, mode: IDBTransactionMode, work: (store: IDBObjectStore) => IDBRequest<T>): Promise<T | undefined> {
-  if (!idb) return Promise.reject(new Error('no IndexedDB here'));
-  return new Promise((resolve, reject) => {
-    const open = idb.open(DB_NAME, 1);
-    open.onupgradeneeded = () => open.result.createObjectStore(STORE);
-    open.onerror = () => reject(open.error);
-    open.onsuccess = () => {
-      const db = open.result;
-      const tx = db.transaction(STORE, mode);
-      const request = work(tx.objectStore(STORE));
-      tx.oncomplete = () => {
-        db.close();
-        resolve(request.result);
-      };
-      tx.onerror = tx.onabort = () => {
-        db.close();
-        reject(tx.error ?? request.error);
-      };
-    };
-  });
 }

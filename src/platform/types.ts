@@ -6,6 +6,8 @@ export interface FileRef {
   id: string;
   name: string;
   size: number;
+  /** The file's last modification (ms since 1970) when the platform knows it (picked files; not demo files). */
+  modified?: number;
 }
 
 export interface PickOptions {
@@ -15,6 +17,12 @@ export interface PickOptions {
   extensions: string[];
   /** Allow picking more than one file. Default false. */
   multiple?: boolean;
+  /**
+   * The files are a site's imagery, to be found again on later opens (see ImageryMemory):
+   * a browser with the File System Access API then picks through it, so it can keep the
+   * files' handles. Default false.
+   */
+  remember?: boolean;
 }
 
 /** One of the app's own files: its plain name, size in bytes and last write (ms since 1970). */
@@ -67,6 +75,38 @@ export interface FolderGrant {
   files(): Promise<AppFiles | null>;
 }
 
+/** What became of one file a site's imagery memory kept, when it is asked for again. */
+export type RecalledFile =
+  /** still where it was, with the size and modification time it had when it was picked */
+  | { name: string; state: 'ready'; file: FileRef }
+  /** no longer there (moved, renamed or deleted) */
+  | { name: string; state: 'missing' }
+  /** there, but its size or modification time is not what it was when it was picked */
+  | { name: string; state: 'changed' }
+  /** the browser did not allow reading it again (the user said no, or was not asked) */
+  | { name: string; state: 'not-allowed' };
+
+/**
+ * Where the imagery picked for each site is found again on this machine, so a stored site
+ * opens without the user picking its files every time. In Electron the main process keeps
+ * the files' paths (the renderer never sees them); in a browser with the File System
+ * Access API the picked files' handles are kept in IndexedDB.
+ */
+export interface ImageryMemory {
+  /**
+   * Keeps `files` (handed out by pickFiles with `remember`, or by recall, on this platform)
+   * as the site's imagery, replacing what was kept for it. Files the platform cannot find
+   * again (in a browser, files picked without the File System Access API) are left out.
+   */
+  remember(siteId: string, files: FileRef[]): Promise<void>;
+  /**
+   * The files kept for the site, each ready to read or why not; [] when none were kept.
+   * With `ask`, a browser asks the user's leave to read them again where it wants it
+   * (which only works while handling a click).
+   */
+  recall(siteId: string, options?: { ask?: boolean }): Promise<RecalledFile[]>;
+}
+
 export interface Platform {
   readonly kind: 'electron' | 'browser';
   /** Asks the user for files; resolves to [] when the user cancels. */
@@ -87,4 +127,6 @@ export interface Platform {
   appFiles(): Promise<AppFiles | null>;
   /** The folder grant of a plain browser with the File System Access API; null elsewhere. */
   readonly folderGrant: FolderGrant | null;
+  /** Finding a site's imagery again; null where files cannot be found again (a browser without the File System Access API). */
+  readonly imageryMemory: ImageryMemory | null;
 }

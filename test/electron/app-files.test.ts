@@ -117,7 +117,7 @@ describe('the app files of the desktop app', () => {
   it('crosses the bridge as data: a full disk is a "full" failure naming the file, a bad name a refusal', async () => {
     const MAIN: FrameIdentity = { url: 'app://fellfield/index.html', processId: 3, routingId: 1 };
     const handlers = createBridgeHandlers({
-      registry: new FileHandleRegistry(), demoDir: undefined, appFilesDir: dir,
+      registry: new FileHandleRegistry(), demoDir: undefined, appFilesDir: dir, imageryMemoryDir: path.join(dir, '..', 'imagery-memory'),
       showOpenDialog: async () => [], showSaveDialog: async () => undefined,
     });
     const route = createBridgeRouter({ handlers, mainFrame: () => MAIN });

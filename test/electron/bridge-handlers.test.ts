@@ -47,6 +47,7 @@ function harness(overrides: Partial<BridgeDependencies> = {}): Harness {
     registry,
     demoDir,
     appFilesDir: path.join(tmp, 'app-files'),
+    imageryMemoryDir: path.join(tmp, 'imagery-memory'),
     showOpenDialog: async () => { dialogs.opened++; return dialogs.nextPick; },
     showSaveDialog: async () => { dialogs.opened++; return dialogs.nextSave; },
     ...overrides,
@@ -170,7 +171,7 @@ describe('the sender check on every channel', () => {
   });
 
   it('refuses everything once the window is closed', async () => {
-    const handlers = createBridgeHandlers({ registry: new FileHandleRegistry(), demoDir, appFilesDir: path.join(tmp, 'app-files'), showOpenDialog: async () => [], showSaveDialog: async () => undefined });
+    const handlers = createBridgeHandlers({ registry: new FileHandleRegistry(), demoDir, appFilesDir: path.join(tmp, 'app-files'), imageryMemoryDir: path.join(tmp, 'imagery-memory'), showOpenDialog: async () => [], showSaveDialog: async () => undefined });
     const route = createBridgeRouter({ handlers, mainFrame: () => undefined });
     expect(await route('openDemoFile', MAIN, { name: 'manifest.json' })).toMatchObject({ ok: false, error: { code: 'refused' } });
   });

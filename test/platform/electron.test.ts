@@ -1,35 +1,25 @@
 // The Electron bridge end to end without Electron: the renderer-side ElectronPlatform
 // talks to the real main-process router and handlers over real files, through an
-// in-process stand-in for the preload (the one piece that needs Electron's IPC). The
-// payloads go through structuredClone (HTML Standard), as IPC serialises them.
+// in-process stand-in for the preload (inProcessBridge.ts).
 import { mkdtemp, mkdir, rm, writeFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createBridgeHandlers, createBridgeRouter } from '../../electron/bridge-handlers.ts';
-import { FileHandleRegistry } from '../../electron/policy/file-handles.ts';
 import type { FrameIdentity } from '../../electron/policy/sender.ts';
-import { BRIDGE_GLOBAL, CHANNELS, type BridgeApi, type ChannelKey } from '../../src/platform/channels.ts';
+import { BRIDGE_GLOBAL, type BridgeApi } from '../../src/platform/channels.ts';
 import { ElectronPlatform } from '../../src/platform/electron.ts';
 import { PlatformError } from '../../src/platform/errors.ts';
 import { choosePlatform } from '../../src/platform/index.ts';
 import { BrowserPlatform } from '../../src/platform/browser.ts';
+import type { FileRef } from '../../src/platform/types.ts';
+import { inProcessBridge, MAIN_FRAME } from './inProcessBridge.ts';
 
-const MAIN: FrameIdentity = { url: 'app://fellfield/index.html', processId: 2, routingId: 1 };
+const MAIN = MAIN_FRAME;
 let tmp: string;
 const pan = new Uint8Array(3000).map((_, i) => (i * 7) % 256);
 
 function bridgeFrom(sender: FrameIdentity, pick: string[]): BridgeApi {
-  const handlers = createBridgeHandlers({
-    registry: new FileHandleRegistry(),
-    demoDir: path.join(tmp, 'demo'),
-    appFilesDir: path.join(tmp, 'app-files'),
-    showOpenDialog: async () => pick,
-    showSaveDialog: async (name) => path.join(tmp, name),
-  });
-  const route = createBridgeRouter({ handlers, mainFrame: () => MAIN });
-  const call = (key: ChannelKey) => async (request: unknown) => structuredClone(await route(key, sender, structuredClone(request)));
-  return Object.fromEntries((Object.keys(CHANNELS) as ChannelKey[]).map((key) => [key, call(key)])) as BridgeApi;
+  return inProcessBridge({ dir: tmp, sender, pick: () => pick });
 }
 
 beforeAll(async () => {
@@ -93,6 +83,20 @@ describe('the Electron platform', () => {
     await files.remove('pyr-1.tiles');
     expect((await files.list()).map((f) => f.name)).toEqual(['demo.site.json']);
     await expect(files.write('../x', 'x')).rejects.toMatchObject({ code: 'bad-request' });
+  });
+
+  it('finds a site\'s picked imagery again through the main process, by reference only', async () => {
+    const scene = path.join(tmp, 'north-pan.tif');
+    await writeFile(scene, pan);
+    const bridge = bridgeFrom(MAIN, [scene]);
+    const p = new ElectronPlatform(bridge);
+    const [picked] = await p.pickFiles({ title: 'The imagery', extensions: ['tif'], multiple: true, remember: true });
+    expect(picked.modified).toEqual(expect.any(Number));
+    await p.imageryMemory.remember('site-north', [picked]);
+    const [again] = await p.imageryMemory.recall('site-north');
+    expect(again).toMatchObject({ name: 'north-pan.tif', state: 'ready', file: { name: 'north-pan.tif', size: 3000, modified: picked.modified } });
+    expect(await p.readRange((again as { file: FileRef }).file, 0, 4)).toEqual(pan.slice(0, 4));
+    expect(JSON.stringify(again)).not.toContain(tmp);
   });
 
   it('saves through the save dialog', async () => {

@@ -3,8 +3,8 @@ import type { FileRef, Platform } from '../../platform/types.ts';
 import type { SiteStore, StoreOptions } from '../../store/SiteStore.ts';
 import type { OpenSite, SceneView } from '../site.ts';
 import { createSite } from '../site/createSite.ts';
-import { hashFile, type Hasher } from './fileHash.ts';
-import { openSceneImagery, type ProgressOptions, type SceneFiles } from './sceneImagery.ts';
+import { fingerprint, type FingerprintOptions } from './fingerprint.ts';
+import { openSceneImagery, type SceneFiles } from './sceneImagery.ts';
 import { siteOnDesk } from './siteOnDesk.ts';
 
 // A new site of the user's own imagery: the scenes are opened first (a file that cannot
@@ -22,9 +22,7 @@ export interface NewSiteInput {
   now(): string;
 }
 
-export interface NewSiteOptions extends ProgressOptions, StoreOptions {
-  hasher: Hasher;
-}
+export interface NewSiteOptions extends FingerprintOptions, StoreOptions {}
 
 function sceneFilesOf(view: SceneView): { role: 'pan' | 'ms'; file: FileRef }[] {
   return [
@@ -33,23 +31,8 @@ function sceneFilesOf(view: SceneView): { role: 'pan' | 'ms'; file: FileRef }[] 
   ];
 }
 
-/** SHA-256 of each file, in turn, with progress over all their bytes. */
-export async function fingerprint(platform: Pick<Platform, 'readRange'>, files: FileRef[], options: ProgressOptions & { hasher: Hasher }): Promise<string[]> {
-  const { onProgress = () => {}, signal, hasher } = options;
-  const total = files.reduce((s, f) => s + f.size, 0) || 1;
-  let before = 0;
-  const digests: string[] = [];
-  for (const file of files) {
-    const label = `Fingerprinting ${file.name} (SHA-256)`;
-    onProgress({ label, fraction: before / total });
-    digests.push(await hashFile(platform, file, hasher, { signal, onBytes: (n) => onProgress({ label, fraction: (before + n) / total }) }));
-    before += file.size;
-  }
-  return digests;
-}
-
 export async function createNewSite(platform: Pick<Platform, 'readRange'>, input: NewSiteInput, options: NewSiteOptions): Promise<OpenSite> {
-  const { onProgress = () => {}, signal, hasher, ...store } = options;
+  const { onProgress = () => {}, signal, hasher, cache, ...store } = options;
   const name = input.name.trim();
   if (!name) throw new Error('Give the site a name.');
   if (!input.interpreter.trim()) throw new Error('Choose who is creating the site (the interpreter profile).');
@@ -63,7 +46,7 @@ export async function createNewSite(platform: Pick<Platform, 'readRange'>, input
   try {
     const perScene = imagery.scenes.map(sceneFilesOf);
     const digests = await fingerprint(platform, perScene.flat().map((f) => f.file), {
-      hasher, signal, onProgress: (p) => onProgress({ ...p, fraction: p.fraction === null ? null : 0.3 + p.fraction * 0.65 }),
+      hasher, cache, signal, onProgress: (p) => onProgress({ ...p, fraction: p.fraction === null ? null : 0.3 + p.fraction * 0.65 }),
     });
     if (new Set(imagery.scenes.map((s) => s.date)).size !== imagery.scenes.length) throw new Error('Two scenes have the same date; a site holds one scene per date.');
     signal?.throwIfAborted();
@@ -73,7 +56,7 @@ export async function createNewSite(platform: Pick<Platform, 'readRange'>, input
     const at = () => ({ actor: context.interpreter, time: input.now() });
     let n = 0;
     for (const [i, view] of imagery.scenes.entries()) {
-      const files: SceneFile[] = perScene[i].map(({ role, file }) => ({ role, name: file.name, size: file.size, sha256: digests[n++] }));
+      const files: SceneFile[] = perScene[i].map(({ role, file }) => ({ role, name: file.name, size: file.size, sha256: digests[n++].sha256 }));
       const scene: SceneRef = { id: `scene-${i + 1}`, date: view.date, epsg: imagery.epsg, files };
       await context.store.commit({ kind: 'scene.added', payload: { scene }, ...at() });
     }

@@ -1,7 +1,7 @@
 import { SiteStore, type StoreOptions } from '../../store/SiteStore.ts';
 import type { Platform } from '../../platform/types.ts';
 import type { OpenSite } from '../site.ts';
-import { missingNotes, verifiedScenes, type ImageryCheck } from './checkImagery.ts';
+import { checkedNote, missingNotes, verifiedScenes, type ImageryCheck } from './checkImagery.ts';
 import { openSceneImagery, type ProgressOptions } from './sceneImagery.ts';
 import { siteOnDesk } from './siteOnDesk.ts';
 
@@ -20,7 +20,8 @@ export async function openStoredSite(platform: Pick<Platform, 'readRange'>, stor
   const imagery = scenes.length ? await openSceneImagery(platform, scenes, options) : null;
   const notes = [...(imagery ? [] : missingNotes(null, refs)), ...(check ? missingNotes(check, refs) : [])];
   try {
-    return siteOnDesk(store, imagery, notes);
+    const checked = checkedNote(check);
+    return { ...siteOnDesk(store, imagery, notes), ...(checked ? { facts: [checked] } : {}) };
   } catch (error) {
     imagery?.dispose();
     throw error;

@@ -1,5 +1,6 @@
-import type { Hasher } from '../../app/sites/fileHash.ts';
+import type { FingerprintTools } from '../../app/sites/fingerprint.ts';
 import { createNewSite } from '../../app/sites/newSite.ts';
+import { rememberImagery } from '../../app/sites/recalledImagery.ts';
 import { demoRoster, rosterFromFile } from '../../app/sites/startingRoster.ts';
 import { InterpreterProfiles } from '../../app/blind/interpreterProfiles.ts';
 import type { RosterEntry } from '../../core/site/index.ts';
@@ -29,7 +30,7 @@ export class NewSiteForm {
   newInitials = $state('');
   #profiles: InterpreterProfiles;
 
-  constructor(private readonly workspace: Workspace, private readonly platform: Platform, private readonly hasher: Hasher, storage: Storage) {
+  constructor(private readonly workspace: Workspace, private readonly platform: Platform, private readonly tools: FingerprintTools, storage: Storage) {
     this.#profiles = new InterpreterProfiles(storage, nowIso);
     this.profileNames = this.#profiles.profiles.map((p) => p.name);
     this.interpreter = this.#profiles.current?.name ?? '';
@@ -40,7 +41,7 @@ export class NewSiteForm {
   }
 
   async pickImagery(index: number): Promise<void> {
-    const files = await this.platform.pickFiles({ title: 'The imagery of one date: a panchromatic and a multiband GeoTIFF', extensions: ['tif', 'tiff'], multiple: true });
+    const files = await this.platform.pickFiles({ title: 'The imagery of one date: a panchromatic and a multiband GeoTIFF', extensions: ['tif', 'tiff'], multiple: true, remember: true });
     if (files.length === 0) return;
     this.problem = files.length > 2 ? `Pick one or two files for one date (a panchromatic and a multiband GeoTIFF); got ${files.length}.` : null;
     if (this.problem) return;
@@ -110,6 +111,11 @@ export class NewSiteForm {
       scenes: this.dates.map((d) => ({ date: d.date || null, files: d.files })),
       now: nowIso,
     };
-    await this.workspace.openWith('Creating the site', (onProgress, signal) => createNewSite(this.platform, input, { hasher: this.hasher, onProgress, signal }));
+    await this.workspace.openWith('Creating the site', async (onProgress, signal) => {
+      const site = await createNewSite(this.platform, input, { ...this.tools, onProgress, signal });
+      // Found again where they are on the next open, with the fingerprints just taken.
+      await rememberImagery(this.platform.imageryMemory, site.store?.state.site?.id ?? '', input.scenes.flatMap((s) => s.files));
+      return site;
+    });
   }
 }
