@@ -63,6 +63,8 @@ describe('reopening a site with the imagery picked for it before', () => {
   it('makes a site of picked imagery', async () => {
     await page.click('button:has-text("New site…")');
     await pick(() => page.click('button[aria-label="Pick the imagery"]'), [paths.pan, paths.ms]);
+    // The form names the site after the files once it has them; type over that name.
+    await expect.poll(() => page.inputValue('input[aria-label="Site name"]')).toBe('ridge');
     await page.fill('input[aria-label="Site name"]', 'South ridge');
     await page.fill('input[aria-label="Scene date"]', '2025-07-20');
     await page.fill('input[aria-label="New interpreter name"]', 'Cora Ridge');

@@ -152,11 +152,17 @@ describe('settling disagreements on the Rulings page', () => {
     const { page } = session!;
     await page.locator('[data-testid="filter-status"]').selectOption('all');
     // A patch called ABFI (the demo's commonest species with pure pixels under the default rule).
-    const item = page.locator('[data-testid="rulings-queue"] li button', { hasText: 'ABFI' }).first();
+    // Held by its patch id, as the list may reorder once a patch is in hand.
+    const patchId = await page.locator('[data-testid="rulings-queue"] li button', { hasText: 'ABFI' }).first().getAttribute('data-patch');
+    const item = page.locator(`[data-testid="rulings-queue"] li button[data-patch="${patchId}"]`);
     await item.click();
-    const named = ((await item.locator('.calls').textContent()) ?? '').split(' / ').filter((s) => roster.some((r) => r.code === s));
+    await expect.poll(() => page.locator('[data-testid="ruling-patch"]').textContent()).toContain(`Patch ${patchId}`);
+    // The species its calls name, and the one a ruling settled it on.
+    const calls = ((await item.locator('.calls').textContent()) ?? '').split(' / ');
+    const settledOn = (await page.locator('[data-testid="ruling-consensus"]').getAttribute('data-species')) ?? '';
+    const named = [...new Set([...calls, settledOn])].filter((s) => roster.some((r) => r.code === s)).sort();
     const lines = page.locator('[data-testid="species-references"] li');
-    await expect.poll(() => lines.evaluateAll((els) => els.map((e) => e.getAttribute('data-species')))).toEqual([...new Set(named)]);
+    await expect.poll(() => lines.evaluateAll((els) => els.map((e) => e.getAttribute('data-species')!).sort())).toEqual(named);
     const abfi = page.locator('[data-testid="species-references"] li[data-species="ABFI"]');
     await expect.poll(() => abfi.getAttribute('data-drawn'), { timeout: 60_000 }).toBe('true');
     expect(await abfi.textContent()).toMatch(/ABFI .*median of its settled patches\s*\d+ pure px in \d+ of \d+ settled patch/);

@@ -70,6 +70,8 @@ describe('a site of your own', () => {
   it('refuses imagery in longitude and latitude, saying what to do', async () => {
     await page.click('button:has-text("New site…")');
     await pick('button[aria-label="Pick the imagery"]', [paths.geoPan]);
+    // The form names the site after the file once it has it; type over that name.
+    await expect.poll(() => page.inputValue('input[aria-label="Site name"]')).not.toBe('');
     await page.fill('input[aria-label="Site name"]', 'Lon-lat try');
     await page.fill('input[aria-label="Scene date"]', '2025-08-01');
     await page.fill('input[aria-label="New interpreter name"]', 'Ada Field');

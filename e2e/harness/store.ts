@@ -50,10 +50,27 @@ function problemsOf(state: SiteState): string[] {
 }
 
 const harness = {
-  async open(siteId: string, copy: boolean): Promise<{ seq: number; patches: number }> {
+  /**
+   * Opens the site, or creates it when this profile has never had it. With `mustExist`,
+   * a site this profile has lost (the browser engine reset its storage) is not made anew:
+   * `missing` says so, and the caller may restore it from its copy on disk.
+   */
+  async open(siteId: string, copy: boolean, mustExist = false): Promise<{ seq: number; patches: number; missing: boolean }> {
     const known = (await listSites()).some((s) => s.id === siteId);
-    if (known) store = await SiteStore.open(siteId);
-    else {
+    const missing = () => {
+      show('missing');
+      return { seq: 0, patches: 0, missing: true };
+    };
+    if (!known && mustExist) return missing();
+    if (known) {
+      try {
+        store = await SiteStore.open(siteId);
+      } catch (error) {
+        // the catalogue kept the site's name but its database was lost
+        if (mustExist && /^No site/.test((error as Error).message)) return missing();
+        throw error;
+      }
+    } else {
       store = await SiteStore.create({ id: siteId, name: 'Durability', epsg: 32632, createdAt: now() }, 'ak');
       await store.commit({
         kind: 'roster.set', actor: 'ak', time: now(),
@@ -63,7 +80,7 @@ const harness = {
     }
     if (copy) keeper = new DiskCopyKeeper(store, target, { quietMs: 1000, maxDelayMs: 5000, onError: (e) => show(`copy failed: ${e.message}`) });
     show(`open at ${store.state.head.seq}`);
-    return { seq: store.state.head.seq, patches: store.state.patches.size };
+    return { seq: store.state.head.seq, patches: store.state.patches.size, missing: false };
   },
 
   /** Runs `count` edits one after another (adds, tags, vertex moves, deletions), reporting each once durable. */
@@ -136,9 +153,10 @@ const harness = {
   },
 
   /** Restores a site from its copy on disk into this (empty) profile. */
-  async restoreFromCopy(siteId: string): Promise<string> {
+  async restoreFromCopy(siteId: string, copy = false): Promise<string> {
     store = await restoreFromDiskCopy(siteId, target);
     if (!store) throw new Error('no copy on disk');
+    if (copy) keeper = new DiskCopyKeeper(store, target, { quietMs: 1000, maxDelayMs: 5000, onError: (e) => show(`copy failed: ${e.message}`) });
     return harness.snapshot();
   },
 };
