@@ -3,8 +3,16 @@ import type { LedgerEvent, Patch, SiteState, Tag } from '../../core/site/index.t
 import type { MultiPolygonRings } from '../../core/geometry/types.ts';
 import { newPatchId } from './patchIndex.ts';
 
-// Cut and join need a geometry library the first screen does without: loaded on first use.
+// Cut and join need a geometry library the first screen does without: loaded once the
+// desk is idle (see preloadOutlineEdits), or on first use.
 const outlineEdits = () => import('./outlineEdits.ts');
+
+/** Loads cut and join's code ahead of the first cut, when the page has nothing else to do. */
+export function preloadOutlineEdits(): void {
+  const load = () => void outlineEdits().catch(() => {}); // a failure shows on first use
+  if ('requestIdleCallback' in globalThis) requestIdleCallback(load, { timeout: 3000 });
+  else setTimeout(load, 1000);
+}
 
 // Outline edits of the desk, each one or more durable ledger events. Every edit reads
 // the state at its turn in the store's queue, so a `previous` value is never stale.
