@@ -17,14 +17,16 @@ import type { CheckSettings, SceneGrids } from './settings.ts';
 const round = (value: number, digits = 3) => Math.round(value * 10 ** digits) / 10 ** digits;
 const percent = (share: number) => `${Math.round(share * 1000) / 10} %`;
 
+/** The answer for most patches, shared (never changed by callers). */
+const NONE: Finding[] = Object.freeze([]) as unknown as Finding[];
+
 export function patchFindings(patch: PreparedPatch, settings: CheckSettings, scene: SceneGrids): Finding[] {
-  const found = [
-    invalidFinding(patch),
-    mixedTagFinding(patch, settings),
-    patch.shape ? undersizedFinding(patch, settings, scene) : null,
-    patch.shape ? offImageFinding(patch, settings, scene) : null,
-  ];
-  return found[0] || found[1] || found[2] || found[3] ? found.filter((f) => f !== null) : [];
+  const invalid = invalidFinding(patch);
+  const mixed = mixedTagFinding(patch, settings);
+  const undersized = patch.shape ? undersizedFinding(patch, settings, scene) : null;
+  const offImage = patch.shape ? offImageFinding(patch, settings, scene) : null;
+  if (!invalid && !mixed && !undersized && !offImage) return NONE;
+  return [invalid, mixed, undersized, offImage].filter((f) => f !== null);
 }
 
 function invalidFinding(patch: PreparedPatch): Finding | null {
@@ -57,20 +59,34 @@ function invalidFinding(patch: PreparedPatch): Finding | null {
   };
 }
 
-const mixedSets = new WeakMap<CheckSettings, Set<string>>();
+interface MixedCodes {
+  /** The "mixed" codes in lower case. */
+  codes: Set<string>;
+  /** Whether a species call as written means mixed: a site has a handful of calls. */
+  calls: Map<string, boolean>;
+}
 
-/** The "mixed" codes in lower case, made once per settings object. */
-function mixedCodeSet(settings: CheckSettings): Set<string> {
+const mixedSets = new WeakMap<CheckSettings, MixedCodes>();
+
+/** The "mixed" codes, made once per settings object. */
+function mixedCodeSet(settings: CheckSettings): MixedCodes {
   let set = mixedSets.get(settings);
-  if (!set) mixedSets.set(settings, (set = new Set(settings.mixedCodes.map((c) => c.toLowerCase()))));
+  if (!set) mixedSets.set(settings, (set = { codes: new Set(settings.mixedCodes.map((c) => c.toLowerCase())), calls: new Map() }));
   return set;
+}
+
+function isMixedCall(species: string, mixed: MixedCodes): boolean {
+  let answer = mixed.calls.get(species);
+  if (answer === undefined) mixed.calls.set(species, (answer = mixed.codes.has(species.trim().toLowerCase())));
+  return answer;
 }
 
 function mixedTagFinding(patch: PreparedPatch, settings: CheckSettings): Finding | null {
   const { input } = patch;
-  const mixedCodes = mixedCodeSet(settings);
+  const mixed = mixedCodeSet(settings);
   // Most patches carry one call that is not "mixed": nothing to build.
-  if (!input.tags?.length && !mixedCodes.has(input.species.trim().toLowerCase())) return null;
+  if (!input.tags?.length && !isMixedCall(input.species, mixed)) return null;
+  const mixedCodes = mixed.codes;
   const calls = [input.species, ...(input.tags ?? []).map((t) => t.species)].map((s) => s.trim());
   const taggedMixed = calls.some((c) => mixedCodes.has(c.toLowerCase()));
   const distinct = [...new Set(calls)].sort();
