@@ -1,5 +1,5 @@
 import type { RasterGrid } from '../geometry/rasterGrid.ts';
-import type { MultiPolygonRings } from '../geometry/types.ts';
+import type { MultiPolygonRings, Position } from '../geometry/types.ts';
 
 // A quick, certain test that a patch holds at least one pure pixel: the grid pixel under
 // the middle of its outer ring lies wholly inside when no edge comes near that pixel's
@@ -9,19 +9,25 @@ import type { MultiPolygonRings } from '../geometry/types.ts';
 /** Edges this close to a footprint (share of the pixel size) count as touching it. */
 const MARGIN = 1e-6;
 
-/** Whether the pixel under the vertex mean of the first outer ring is certainly pure. */
-export function middlePixelIsPure(shape: MultiPolygonRings, grid: RasterGrid): boolean {
+/**
+ * Whether the pixel under the vertex mean of the first outer ring is certainly pure.
+ * A caller that has that mean already passes it (`middle`), sparing a pass.
+ */
+export function middlePixelIsPure(shape: MultiPolygonRings, grid: RasterGrid, middle: Position | null = null): boolean {
   const outer = shape[0]?.[0];
   if (!outer || outer.length < 4) return false;
-  let mx = 0, my = 0;
-  const m = outer.length - 1;
-  for (let i = 0; i < m; i++) {
-    mx += outer[i][0];
-    my += outer[i][1];
+  if (!middle) {
+    let mx = 0, my = 0;
+    const m = outer.length - 1;
+    for (let i = 0; i < m; i++) {
+      mx += outer[i][0];
+      my += outer[i][1];
+    }
+    middle = [mx / m, my / m];
   }
   const { originX: ox, originY: oy, pixelWidth: pw, pixelHeight: ph } = grid;
-  const col = Math.floor((mx / m - ox) / pw);
-  const row = Math.floor((oy - my / m) / ph);
+  const col = Math.floor((middle[0] - ox) / pw);
+  const row = Math.floor((oy - middle[1]) / ph);
   if (!(col >= 0 && col < grid.width && row >= 0 && row < grid.height)) return false;
   const gap = MARGIN * Math.max(pw, ph);
   const x0 = ox + col * pw - gap, x1 = ox + (col + 1) * pw + gap;
