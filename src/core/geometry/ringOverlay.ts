@@ -52,11 +52,16 @@ function openCcw(ring: Ring): Position[] {
 function crossings(a: Position[], b: Position[]): Crossing[] | null {
   const out: Crossing[] = [];
   const n = a.length, m = b.length;
+  // Only edges that meet the other ring's box can meet any of its edges: pairing just
+  // those (in the same order) finds the same crossings with far fewer box tests.
+  const nearA = edgesMeeting(b, boxOf(a));
+  const boxB = boxOf(b);
   for (let i = 0; i < n; i++) {
     const p = a[i], q = a[(i + 1) % n];
     const minX = Math.min(p[0], q[0]), maxX = Math.max(p[0], q[0]);
     const minY = Math.min(p[1], q[1]), maxY = Math.max(p[1], q[1]);
-    for (let j = 0; j < m; j++) {
+    if (boxB[2] < minX || boxB[0] > maxX || boxB[3] < minY || boxB[1] > maxY) continue;
+    for (const j of nearA) {
       const r = b[j], s = b[(j + 1) % m];
       if (Math.max(r[0], s[0]) < minX || Math.min(r[0], s[0]) > maxX
         || Math.max(r[1], s[1]) < minY || Math.min(r[1], s[1]) > maxY) continue;
@@ -81,6 +86,31 @@ function crossings(a: Position[], b: Position[]): Crossing[] | null {
       // B runs counter-clockwise, its inside on its left: A enters where p lies right of B's edge.
       out.push({ point: [p[0] + t * ex, p[1] + t * ey], edgeA: i, alongA: t, edgeB: j, alongB: u, aEnters: d3 < 0, inB: -1, used: false });
     }
+  }
+  return out;
+}
+
+/** [minX, minY, maxX, maxY] of an open ring's positions. */
+function boxOf(ring: Position[]): [number, number, number, number] {
+  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  for (const p of ring) {
+    if (p[0] < minX) minX = p[0];
+    if (p[0] > maxX) maxX = p[0];
+    if (p[1] < minY) minY = p[1];
+    if (p[1] > maxY) maxY = p[1];
+  }
+  return [minX, minY, maxX, maxY];
+}
+
+/** Indices, in order, of the open ring's edges whose boxes meet `box` (closed boxes). */
+function edgesMeeting(ring: Position[], box: [number, number, number, number]): number[] {
+  const out: number[] = [];
+  const m = ring.length;
+  for (let j = 0; j < m; j++) {
+    const r = ring[j], s = ring[(j + 1) % m];
+    if (Math.max(r[0], s[0]) < box[0] || Math.min(r[0], s[0]) > box[2]
+      || Math.max(r[1], s[1]) < box[1] || Math.min(r[1], s[1]) > box[3]) continue;
+    out.push(j);
   }
   return out;
 }
