@@ -132,6 +132,8 @@ export class CheckSession {
   *#loadSteps(patches: PatchInput[], chunk: number): Generator<number, void> {
     this.#clear();
     let done = 0;
+    // Whole chunks done pause the steps (a plain load passes Infinity: no pauses).
+    let pause = chunk;
     for (const input of patches) {
       const entry = this.#check(input);
       this.#patches.set(input.id, entry);
@@ -139,7 +141,10 @@ export class CheckSession {
         this.#clear();
         throw new RangeError(`patch id ${JSON.stringify(input.id)} appears twice`);
       }
-      if (++done % chunk === 0) yield done;
+      if (++done === pause) {
+        pause += chunk;
+        yield done;
+      }
     }
     this.#rebuildTree();
     const tree = this.#tree;
@@ -151,7 +156,10 @@ export class CheckSession {
       for (const j of tree.search(e[0], e[1], e[2], e[3])) {
         if (j > i) this.#link(patch, slots[j]!.patch);
       }
-      if (++done % chunk === 0) yield done;
+      if (++done === pause) {
+        pause += chunk;
+        yield done;
+      }
     }
   }
 
