@@ -1,4 +1,5 @@
 import Flatbush from 'flatbush';
+import { boxPairs } from '../geometry/boxPairs.ts';
 import { countPurePixels } from '../geometry/purePixels.ts';
 import type { Extent } from '../geometry/types.ts';
 import { compareFindings, countByKind, type Finding, type FindingKind, type PatchId } from './findings.ts';
@@ -9,7 +10,7 @@ import { resolveSettings, type CheckSettings, type SceneGrids } from './settings
 
 // The checks over a whole site, kept current edit by edit. A full load indexes every
 // patch's box in a Flatbush tree and checks each patch and each pair of neighbouring
-// boxes. After that, adding, changing or removing one patch re-checks only that patch
+// boxes (found all at once, see boxPairs.ts). After that, adding, changing or removing one patch re-checks only that patch
 // and its neighbours. Flatbush trees are static, so a changed patch leaves its old slot
 // dead and joins a short list of loose patches searched one by one; the tree is rebuilt
 // when that list grows long.
@@ -150,12 +151,10 @@ export class CheckSession {
     const tree = this.#tree;
     if (!tree) return;
     const slots = this.#slots;
+    const { start, partner } = boxPairs(slots.map((entry) => entry!.patch.extent!), (e) => tree.search(e[0], e[1], e[2], e[3]));
     for (let i = 0; i < slots.length; i++) {
       const patch = slots[i]!.patch;
-      const e = patch.extent!;
-      for (const j of tree.search(e[0], e[1], e[2], e[3])) {
-        if (j > i) this.#link(patch, slots[j]!.patch);
-      }
+      for (let k = start[i]; k < start[i + 1]; k++) this.#link(patch, slots[partner[k]]!.patch);
       if (++done === pause) {
         pause += chunk;
         yield done;
