@@ -8,9 +8,10 @@ import { patchFindings } from './patchFindings.ts';
 import { preparePatch, type PatchInput, type PreparedPatch } from './preparedPatch.ts';
 import { resolveSettings, type CheckSettings, type SceneGrids } from './settings.ts';
 
-// The checks over a whole site, kept current edit by edit. A full load indexes every
-// patch's box in a Flatbush tree and checks each patch and each pair of neighbouring
-// boxes (found all at once, see boxPairs.ts). After that, adding, changing or removing one patch re-checks only that patch
+// The checks over a whole site, kept current edit by edit. A full load checks each
+// patch and each pair of neighbouring boxes (found all at once, see boxPairs.ts); the
+// Flatbush tree over every patch's box that edits need is built at the first edit, or
+// sooner by compact(). After that, adding, changing or removing one patch re-checks only that patch
 // and its neighbours. Flatbush trees are static, so a changed patch leaves its old slot
 // dead and joins a short list of loose patches searched one by one; the tree is rebuilt
 // when that list grows long.
@@ -71,6 +72,8 @@ export class CheckSession {
   #single = new Set<Entry>();
   #pairs = new Map<PatchId, Map<PatchId, Finding[]>>();
   #tree: Flatbush | null = null;
+  /** Whether #tree and the slots cover every patch not in #loose (false after a load). */
+  #indexed = false;
   /** Tree slot -> entry; null once the entry left its slot. */
   #slots: (Entry | null)[] = [];
   #loose = new Set<Entry>();
@@ -127,6 +130,7 @@ export class CheckSession {
     this.#loose.clear();
     this.#tree = null;
     this.#slots = [];
+    this.#indexed = false;
   }
 
   /** The full check as a sequence of steps; yields work done after each chunk. */
@@ -147,11 +151,10 @@ export class CheckSession {
         yield done;
       }
     }
-    this.#rebuildTree();
-    const tree = this.#tree;
-    if (!tree) return;
-    const slots = this.#slots;
-    const { start, partner } = boxPairs(slots.map((entry) => entry!.patch.extent!), (e) => tree.search(e[0], e[1], e[2], e[3]));
+    const slots = this.#indexable();
+    // The tree, built only when the boxes are too uneven for the grid, takes the
+    // entries in this same order, so its slots are these indices.
+    const { start, partner } = boxPairs(slots.map((entry) => entry.patch.extent!), (e) => this.#index()!.search(e[0], e[1], e[2], e[3]));
     for (let i = 0; i < slots.length; i++) {
       const patch = slots[i]!.patch;
       for (let k = start[i]; k < start[i + 1]; k++) this.#link(patch, slots[partner[k]]!.patch);
@@ -164,6 +167,7 @@ export class CheckSession {
 
   /** Adds a patch or replaces the one with its id, re-checking it and its neighbours. */
   upsert(input: PatchInput): CheckDelta {
+    this.#index();
     const old = this.#patches.get(input.id);
     const removed = old ? this.#detach(old) : [];
     const entry = this.#check(input);
@@ -196,9 +200,9 @@ export class CheckSession {
     return { removed, added: [] };
   }
 
-  /** Rebuilds the index over all patches now (for an idle moment after many edits). */
+  /** Builds the index over all patches now (for an idle moment after a load or many edits). */
   compact(): void {
-    if (this.#loose.size > 0) this.#rebuildTree();
+    if (this.#loose.size > 0 || !this.#indexed) this.#rebuildTree();
   }
 
   /** Every current finding, in a stable order (kind, then patch ids). */
@@ -274,13 +278,26 @@ export class CheckSession {
     return out;
   }
 
+  /** The patches with a box, in the order the tree takes them. */
+  #indexable(): Entry[] {
+    const out: Entry[] = [];
+    for (const entry of this.#patches.values()) if (entry.patch.extent) out.push(entry);
+    return out;
+  }
+
+  /** The tree, built first if a load left it unbuilt. */
+  #index(): Flatbush | null {
+    if (!this.#indexed) this.#rebuildTree();
+    return this.#tree;
+  }
+
   #rebuildTree(): void {
-    const slots: Entry[] = [];
-    for (const entry of this.#patches.values()) {
-      entry.slot = entry.patch.extent ? slots.push(entry) - 1 : -1;
-    }
+    for (const entry of this.#patches.values()) entry.slot = -1;
+    const slots = this.#indexable();
+    slots.forEach((entry, slot) => (entry.slot = slot));
     this.#slots = slots;
     this.#loose.clear();
+    this.#indexed = true;
     if (slots.length === 0) {
       this.#tree = null;
       return;
