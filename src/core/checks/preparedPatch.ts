@@ -40,6 +40,9 @@ export interface PreparedPatch {
 
 const samePoint = (a: Position, b: Position) => a[0] === b[0] && a[1] === b[1];
 
+/** The issues of every valid patch, shared (never changed). */
+const NO_ISSUES: ValidityIssue[] = Object.freeze([]) as unknown as ValidityIssue[];
+
 export function preparePatch(input: PatchInput, settings: CheckSettings): PreparedPatch {
   const quick = plainStarPatch(input, settings.maxVertices);
   if (quick) return quick;
@@ -104,7 +107,7 @@ function plainStarPatch(input: PatchInput, maxVertices: number): PreparedPatch |
   const maxAbs = Math.max(Math.abs(minX), Math.abs(maxX), Math.abs(minY), Math.abs(maxY));
   const middle: Position = [sumX / m, sumY / m];
   if (!ringIsStarAround(ring, middle[0], middle[1], 8 * Number.EPSILON * span * (maxAbs + span))) return null;
-  return { input, issues: [], repair: null, shape: parts, area: Math.abs(sum / 2), extent: [minX, minY, maxX, maxY], middle, hull: null, jsts: null };
+  return { input, issues: NO_ISSUES, repair: null, shape: parts, area: Math.abs(sum / 2), extent: [minX, minY, maxX, maxY], middle, hull: null, jsts: null };
 }
 
 export function jstsOf(patch: PreparedPatch): JstsGeometry {
