@@ -132,6 +132,22 @@ export function inside(p: Position, ring: Position[]): boolean | null {
 const close = (ring: Position[]): Ring => [...ring, ring[0]];
 
 /**
+ * A stable sorted copy; by insertion when short: two crowns' boundaries cross a few
+ * times, and for so few items Array.prototype.sort's set-up costs more than the sorting.
+ */
+function sortedCopy<T>(items: T[], compare: (a: T, b: T) => number): T[] {
+  const out = [...items];
+  if (out.length > 16) return out.sort(compare);
+  for (let i = 1; i < out.length; i++) {
+    const item = out[i];
+    let j = i;
+    for (; j > 0 && compare(out[j - 1], item) > 0; j--) out[j] = out[j - 1];
+    out[j] = item;
+  }
+  return out;
+}
+
+/**
  * A ∩ B or A − B of two valid single rings (closed, simple), as polygons with outer
  * rings counter-clockwise and holes clockwise; null when the case is degenerate.
  */
@@ -144,8 +160,8 @@ export function ringOverlay(ringA: Ring, ringB: Ring, op: 'intersection' | 'diff
   if (found.length % 2 === 1) return null;
 
   // Order the crossings along each ring; two at one place cannot be ordered.
-  const alongA = [...found].sort((x, y) => x.edgeA - y.edgeA || x.alongA - y.alongA);
-  const alongB = [...found].sort((x, y) => x.edgeB - y.edgeB || x.alongB - y.alongB);
+  const alongA = sortedCopy(found, (x, y) => x.edgeA - y.edgeA || x.alongA - y.alongA);
+  const alongB = sortedCopy(found, (x, y) => x.edgeB - y.edgeB || x.alongB - y.alongB);
   for (let k = 1; k < found.length; k++) {
     if (alongA[k].edgeA === alongA[k - 1].edgeA && alongA[k].alongA === alongA[k - 1].alongA) return null;
     if (alongB[k].edgeB === alongB[k - 1].edgeB && alongB[k].alongB === alongB[k - 1].alongB) return null;
