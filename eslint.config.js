@@ -36,6 +36,20 @@ export default tseslint.config(
     },
   },
   {
+    // The TIFF inspector runs in a small worker at every open: it names CRSs from
+    // crsNames.ts and never loads proj4.
+    files: ['src/core/tiff/**/*.ts'],
+    rules: {
+      'no-restricted-imports': ['error', {
+        patterns: [
+          { group: coreForbidden, message: 'src/core is pure: no framework, storage, imagery or desktop imports.' },
+          { group: coreForbiddenPaths, message: 'src/core must not import from the layers above it.' },
+          { group: ['proj4', '**/crs.ts'], message: 'The TIFF inspector stays free of proj4: use ../crsNames.ts.' },
+        ],
+      }],
+    },
+  },
+  {
     files: ['src/ui/**/*.ts', 'src/ui/**/*.svelte'],
     rules: {
       'no-restricted-imports': ['error', {

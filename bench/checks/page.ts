@@ -2,7 +2,8 @@
 // checks worker (as the desk runs it) or in this page's thread (the chunked check the
 // desk ran before), while the UI thread's long tasks are recorded and key presses are
 // answered (each answer notes how long the press waited).
-import { InlineCheckRunner, WorkerCheckRunner } from '../../src/app/findings/checkRunner.ts';
+import { WorkerCheckRunner } from '../../src/app/findings/checkRunner.ts';
+import { InlineCheckRunner } from '../../src/app/findings/inlineCheckRunner.ts';
 import { FindingsTracker, type TrackedPatch } from '../../src/app/findings/FindingsTracker.ts';
 import { sceneFor, seededSite } from './site.ts';
 

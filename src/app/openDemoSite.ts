@@ -41,6 +41,7 @@ export async function openDemoSite(platform: Platform, options: OpenOptions = {}
   const manifest = await readJson<DemoManifest>('manifest.json');
   if (manifest.kind !== 'fellfield demo manifest') throw new Error('manifest.json: not a Fellfield demo manifest');
 
+  performance.mark('fellfield:manifest');
   const pool = createRenderPool();
   const tiles = tileStoreFor(platform);
   try {
@@ -66,6 +67,7 @@ export async function openDemoSite(platform: Platform, options: OpenOptions = {}
       readJson<{ species: RosterEntry[] }>('roster.json').then((r) => r.species),
       readJson<FieldPolygons>('field.geojson'),
     ]);
+    performance.mark('fellfield:rasters-open');
     startDefaultStretch(scenes[0]);
     onProgress({ label: 'Ready', fraction: 1 });
     return {

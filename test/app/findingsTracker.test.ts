@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { FindingsTracker, type TrackedPatch } from '../../src/app/findings/FindingsTracker.ts';
-import { InlineCheckRunner } from '../../src/app/findings/checkRunner.ts';
+import { InlineCheckRunner } from '../../src/app/findings/inlineCheckRunner.ts';
 import { runChecks } from '../../src/core/checks/runChecks.ts';
 import { seeded } from '../../bench/harness.ts';
 

@@ -1,6 +1,6 @@
 import type { CheckDelta } from '../../core/checks/CheckSession.ts';
-import { compareFindings, countByKind, type Finding, type FindingKind } from '../../core/checks/findings.ts';
-import { findingKey, type CheckProgress, type CheckScene, type TrackedPatch } from './checkHost.ts';
+import { compareFindings, countByKind, findingKey, type Finding, type FindingKind } from '../../core/checks/findings.ts';
+import type { CheckProgress, CheckScene, TrackedPatch } from './checkHost.ts';
 import type { CheckRunner } from './checkRunner.ts';
 
 export type { TrackedPatch } from './checkHost.ts';

@@ -1,5 +1,5 @@
 import { CheckSession, type CheckDelta, type LoadProgress } from '../../core/checks/CheckSession.ts';
-import type { Finding } from '../../core/checks/findings.ts';
+import { findingKey, type Finding } from '../../core/checks/findings.ts';
 import { NoDataMask, readMasksFor } from '../../core/checks/noDataMask.ts';
 import type { PatchInput } from '../../core/checks/preparedPatch.ts';
 import { resolveSettings } from '../../core/checks/settings.ts';
@@ -104,6 +104,3 @@ export class CheckHost {
     return inputs.filter((p) => vertexCount(p.rings) <= limit).map((p) => extentOfRings(p.rings));
   }
 }
-
-/** One finding per kind and patches: the key a list adds and removes by. */
-export const findingKey = (f: Finding) => `${f.kind}|${f.patches.join('\u0001')}`;

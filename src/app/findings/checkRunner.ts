@@ -1,12 +1,13 @@
 import type { CheckDelta } from '../../core/checks/CheckSession.ts';
 import type { Finding } from '../../core/checks/findings.ts';
-import { CheckHost, type CheckProgress, type CheckScene, type TrackedPatch } from './checkHost.ts';
+import type { CheckProgress, CheckScene, TrackedPatch } from './checkHost.ts';
 import type { ChecksMessage, ChecksReply } from './checks.worker.ts';
 import { packPatches } from './patchBatch.ts';
 import { callWorker, KEEP_LISTENING } from '../workerCall.ts';
 
 // Who runs the checks: a worker in the app (the page stays responsive), the calling
-// thread in tests. Both run CheckHost, so both apply the same rules.
+// thread in tests (inlineCheckRunner.ts). Both run CheckHost, so both apply the same
+// rules; the app's thread never loads the checks' geometry code itself.
 
 /** Reads bytes of the scene raster at `raster` (its index in CheckScene.rasters). */
 export type PageBytes = (raster: number, offset: number, length: number, signal?: AbortSignal) => Promise<Uint8Array>;
@@ -20,25 +21,6 @@ export interface CheckRunner {
 }
 
 const abortError = () => new DOMException('the checks were cancelled', 'AbortError');
-
-/** Runs in the calling thread (tests, scripts). */
-export class InlineCheckRunner implements CheckRunner {
-  readonly #host: CheckHost;
-
-  constructor(bytes: PageBytes) {
-    this.#host = new CheckHost(bytes);
-  }
-
-  load(patches: TrackedPatch[], scene: CheckScene, onProgress: (p: CheckProgress) => void, signal?: AbortSignal): Promise<Finding[]> {
-    return this.#host.load(patches, scene, onProgress, signal);
-  }
-
-  apply(upserts: TrackedPatch[], removals: string[]): Promise<CheckDelta> {
-    return this.#host.apply(upserts, removals);
-  }
-
-  dispose(): void {}
-}
 
 /** Patches per message to the worker: each copy stays short on the UI thread. */
 const PATCH_BATCH = 2000;

@@ -1,4 +1,5 @@
 import type { Figure } from '../agreement/index.ts';
+import type { SettledSheet } from '../rulings/settledSheet.ts';
 import type { DelineationSheet, PassesFleiss, PassSheet } from './passComparison.ts';
 
 // The agreement sheet as CSV (RFC 4180: comma-separated, fields with commas, quotes or
@@ -17,9 +18,11 @@ export interface SheetCsvInput {
   sheet: PassSheet;
   fleiss?: PassesFleiss | null;
   delineation?: DelineationSheet | null;
+  /** what the rulings made of the two passes, when any patch they called is settled */
+  settled?: SettledSheet | null;
 }
 
-export function agreementCsv({ sheet: s, fleiss, delineation }: SheetCsvInput): string {
+export function agreementCsv({ sheet: s, fleiss, delineation, settled }: SheetCsvInput): string {
   const rows: (string | number | null)[][] = [['section', 'row', 'column', 'value', 'explanation']];
   const add = (section: string, row: string, column: string, value: number | string | null, explanation = '') => rows.push([section, row, column, value, explanation]);
   const figure = (section: string, row: string, f: Figure, explanation: string) => add(section, row, '', f.value, f.value === null ? f.reason : explanation);
@@ -59,6 +62,19 @@ export function agreementCsv({ sheet: s, fleiss, delineation }: SheetCsvInput): 
     figure('fleiss', 'observed', fleiss.figures.observed, '');
     figure('fleiss', 'expected', fleiss.figures.expected, '');
     figure('fleiss', 'kappa', fleiss.figures.kappa, fleiss.explanation);
+  }
+  if (settled) {
+    const t = settled.disagreements;
+    add('after the rulings', 'disagreements', 'total', t.total);
+    add('after the rulings', 'disagreements', 'settled', t.settled, t.explanation);
+    add('after the rulings', 'disagreements', 'open', t.open);
+    for (const [on, n] of Object.entries(t.on)) add('after the rulings', 'settled on', on, n);
+    for (const p of settled.passes) {
+      const row = `${p.passId} (${p.interpreter})`;
+      add('after the rulings', row, 'n', p.n, 'settled patches this pass called');
+      add('after the rulings', row, 'observed', p.figures.observed.value, p.figures.observed.value === null ? p.figures.observed.reason : p.explanations.observed);
+      add('after the rulings', row, 'kappa', p.figures.kappa.value, p.figures.kappa.value === null ? p.figures.kappa.reason : p.explanations.kappa);
+    }
   }
   if (delineation) {
     const d = delineation.figures;

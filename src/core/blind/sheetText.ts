@@ -12,7 +12,7 @@ export interface ReportLine {
   kind: 'title' | 'heading' | 'figure' | 'explanation' | 'table';
 }
 
-export function agreementReport({ sheet: s, fleiss, delineation }: SheetCsvInput, title: string): ReportLine[] {
+export function agreementReport({ sheet: s, fleiss, delineation, settled }: SheetCsvInput, title: string): ReportLine[] {
   const lines: ReportLine[] = [];
   const push = (kind: ReportLine['kind'], text: string) => lines.push({ kind, text });
   const { matrix, figures, explanations } = s.sheet;
@@ -49,6 +49,16 @@ export function agreementReport({ sheet: s, fleiss, delineation }: SheetCsvInput
   if (fleiss) {
     push('heading', `Fleiss' kappa over ${fleiss.passIds.join(', ')}`);
     fig("Fleiss' kappa", fleiss.figures.kappa, fleiss.explanation);
+  }
+  if (settled) {
+    const t = settled.disagreements;
+    push('heading', 'After the rulings (the calls against the settled species)');
+    push('figure', `Disagreements settled: ${t.settled} of ${t.total}, ${t.open} open`);
+    push('explanation', t.explanation);
+    for (const p of settled.passes) {
+      push('figure', `${p.passId} (${p.interpreter}): ${p.n} settled patches called, as settled ${f3(p.figures.observed)}, kappa ${f3(p.figures.kappa)}`);
+      push('explanation', `${p.explanations.observed} ${p.explanations.kappa}`);
+    }
   }
   if (delineation) {
     const d = delineation.figures;

@@ -88,3 +88,6 @@ export function countByKind(findings: Finding[]): Record<FindingKind, number> {
   for (const f of findings) counts[f.kind]++;
   return counts;
 }
+
+/** One finding per kind and patches: the key a list adds and removes by. */
+export const findingKey = (f: Finding) => `${f.kind}|${f.patches.join('\u0001')}`;

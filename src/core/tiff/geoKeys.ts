@@ -1,4 +1,4 @@
-import { crsName, isGeographicEpsg } from '../crs.ts';
+import { crsName, isGeographicEpsg } from '../crsNames.ts';
 import { GeoKey, Tag } from './tags.ts';
 
 // GeoTIFF 1.1 (OGC 19-008r4) GeoKeyDirectory: a header (version 1, revision 1.0, key

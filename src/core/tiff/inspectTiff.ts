@@ -1,4 +1,4 @@
-import { crsName as knownCrsName } from '../crs.ts';
+import { crsName as knownCrsName } from '../crsNames.ts';
 import { ByteSource, type ReadRange } from './byteSource.ts';
 import { TiffError } from './errors.ts';
 import { parseGdalMetadata, WAVELENGTH_ITEM } from './gdalMetadata.ts';

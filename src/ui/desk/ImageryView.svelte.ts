@@ -134,6 +134,11 @@ export class ImageryView {
     return this.#layerFor(this.sceneIndex);
   }
 
+  /** The view waits for its stretch samples (not a view that cannot be shown): the map shows the one before meanwhile. */
+  get waiting(): boolean {
+    return this.layer === null && this.problem === null && this.stretchedKeys.some((key) => this.sampleOf(key) === null);
+  }
+
   /** The other date over this one, when comparing. */
   get compareLayer(): CompareSpec | null {
     if (this.compare === 'none' || this.site.scenes.length < 2) return null;

@@ -3,7 +3,6 @@ import type { SceneView } from '../../app/site.ts';
 import type { CheckProgress } from '../../app/findings/checkHost.ts';
 import { WorkerCheckRunner, type CheckRunner, type PageBytes } from '../../app/findings/checkRunner.ts';
 import { FindingsTracker } from '../../app/findings/FindingsTracker.ts';
-import { fixPlan } from '../../app/findings/fixPlan.ts';
 import { checkScene } from '../../app/findings/sceneGrids.ts';
 import type { PatchDesk } from './PatchDesk.svelte.ts';
 
@@ -94,6 +93,8 @@ export class FindingsDesk {
 
   /** Carries out a finding's suggested fix as an ordinary, undoable edit. */
   async fix(finding: Finding): Promise<void> {
+    // The fixes' geometry library is loaded on the first fix, not with the desk.
+    const { fixPlan } = await import('../../app/findings/fixPlan.ts');
     const plan = fixPlan(finding, (id) => this.#patches.state.patches.get(id)?.geometry);
     const patches = this.#patches;
     if (plan.kind === 'hand') {

@@ -71,7 +71,9 @@ export class Workspace {
   async openWith(label: string, opener: Opener): Promise<void> {
     const opened = await this.run(label, opener);
     if (opened === null) return; // cancelled, refused (see error) or backed out of
+    performance.mark('fellfield:site-open');
     const site = await this.#adopt(opened);
+    performance.mark('fellfield:site-adopted');
     this.site?.dispose();
     this.site = site;
     this.screen = 'desk';

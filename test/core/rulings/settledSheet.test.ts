@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { recordRuling } from '../../../src/app/rulings/recordRuling.ts';
+import Papa from 'papaparse';
+import { agreementCsv, agreementReport, passSheet } from '../../../src/core/blind/index.ts';
 import { settledSheet } from '../../../src/core/rulings/index.ts';
 import { at, ruledSite } from '../../app/rulings/ruledSite.ts';
 
@@ -56,5 +58,31 @@ describe('the passes against the settled species', () => {
     expect(sheet.passes[0].explanations.kappa).toMatch(/^Not defined: no paired calls/);
     const alike = await ruledSite([{ size: 5, first: 'PICE', second: { species: 'PICE' } }]);
     expect(settledSheet(alike.site.state, 'pass-ak', alike.blindPassId).disagreements.explanation).toMatch(/nothing to rule on/);
+  });
+
+  it('goes into the saved sheet: CSV rows (read back by PapaParse, RFC 4180) and report lines', async () => {
+    const { site, blindPassId } = await ruledSite([
+      { size: 10, first: 'PICE', second: { species: 'ALVI' } },
+      { size: 9, first: 'PICE', second: { species: 'LADE' } },
+      { size: 7, first: 'PICE', second: { species: 'PICE' } },
+    ]);
+    await recordRuling(site, { patchId: 'P1', decision: { kind: 'accept', passId: blindPassId }, reason: '', seen: null }, ruler());
+    const settled = settledSheet(site.state, 'pass-ak', blindPassId);
+    const sheet = passSheet(site.state, 'pass-ak', blindPassId);
+    const rows = Papa.parse<Record<string, string>>(agreementCsv({ sheet, settled }), { header: true, skipEmptyLines: true });
+    expect(rows.errors).toEqual([]);
+    const get = (row: string, column: string) => rows.data.find((r) => r.section === 'after the rulings' && r.row === row && r.column === column);
+    expect(get('disagreements', 'total')!.value).toBe('2');
+    expect(get('disagreements', 'settled')).toMatchObject({ value: '1', explanation: settled.disagreements.explanation });
+    expect(get('disagreements', 'open')!.value).toBe('1');
+    expect(get('settled on', 'second')!.value).toBe('1');
+    const ak = settled.passes[0];
+    expect(Number(get('pass-ak (ak)', 'n')!.value)).toBe(ak.n);
+    expect(Number(get('pass-ak (ak)', 'observed')!.value)).toBe(ak.figures.observed.value);
+    const report = agreementReport({ sheet, settled }, 'test').map((l) => l.text);
+    expect(report).toContain('Disagreements settled: 1 of 2, 1 open');
+    expect(report.some((t) => t.startsWith('pass-ak (ak): 2 settled patches called'))).toBe(true);
+    // Without rulings asked for, the sheet is as before.
+    expect(agreementCsv({ sheet })).not.toContain('after the rulings');
   });
 });
