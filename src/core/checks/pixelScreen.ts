@@ -36,11 +36,13 @@ export function middlePixelIsPure(shape: MultiPolygonRings, grid: RasterGrid, mi
   let inside = false;
   for (const rings of shape) {
     for (const ring of rings) {
+      if (ring.length === 0) continue;
+      let ax = ring[0][0], ay = ring[0][1];
       for (let i = 1; i < ring.length; i++) {
-        const ax = ring[i - 1][0], ay = ring[i - 1][1], bx = ring[i][0], by = ring[i][1];
+        const bx = ring[i][0], by = ring[i][1];
         // An edge whose box meets the grown footprint, with corners on both sides of
         // its line (or on it), may cross the footprint: not certain.
-        if (!(Math.max(ax, bx) < x0 || Math.min(ax, bx) > x1 || Math.max(ay, by) < y0 || Math.min(ay, by) > y1)) {
+        if (!((ax < x0 && bx < x0) || (ax > x1 && bx > x1) || (ay < y0 && by < y0) || (ay > y1 && by > y1))) {
           const dx = bx - ax, dy = by - ay;
           const s0 = dx * (y0 - ay) - dy * (x0 - ax);
           const s1 = dx * (y0 - ay) - dy * (x1 - ax);
@@ -50,6 +52,8 @@ export function middlePixelIsPure(shape: MultiPolygonRings, grid: RasterGrid, mi
         }
         // Even-odd crossing along the ray east of the footprint's centre.
         if ((ay > cy) !== (by > cy) && cx < ax + ((cy - ay) * (bx - ax)) / (by - ay)) inside = !inside;
+        ax = bx;
+        ay = by;
       }
     }
   }
