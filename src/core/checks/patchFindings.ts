@@ -140,21 +140,30 @@ function undersizedFinding(patch: PreparedPatch, settings: CheckSettings, scene:
 }
 
 const gridExtents = new WeakMap<RasterGrid, Extent>();
+/** The grid asked about last, and its extent: a site's patches ask of one grid in turn. */
+let lastGrid: { grid: RasterGrid; extent: Extent } | null = null;
 
 /** Whether the patch's box meets the grid at all: off the grid, off-image says it all. */
 function overlapsGrid(patch: PreparedPatch, grid: RasterGrid): boolean {
-  const g = gridExtents.get(grid) ?? gridExtents.set(grid, gridExtent(grid)).get(grid)!;
+  if (lastGrid?.grid !== grid) {
+    lastGrid = { grid, extent: gridExtents.get(grid) ?? gridExtents.set(grid, gridExtent(grid)).get(grid)! };
+  }
+  const g = lastGrid.extent;
   const e = patch.extent!;
   return e[0] < g[2] && e[2] > g[0] && e[1] < g[3] && e[3] > g[1];
 }
 
 /** The rectangle every given raster covers (their intersection), or null with no scene. */
 export function sceneExtent(scene: SceneGrids): Extent | null {
+  if (lastScene?.scene === scene) return lastScene.extent;
   if (!sceneExtents.has(scene)) sceneExtents.set(scene, extentOfScene(scene));
-  return sceneExtents.get(scene)!;
+  lastScene = { scene, extent: sceneExtents.get(scene)! };
+  return lastScene.extent;
 }
 
 const sceneExtents = new WeakMap<SceneGrids, Extent | null>();
+/** The scene asked about last, and its extent (as lastGrid). */
+let lastScene: { scene: SceneGrids; extent: Extent | null } | null = null;
 
 function extentOfScene(scene: SceneGrids): Extent | null {
   const extents = [scene.pan, scene.ms].filter((g) => g !== undefined).map((g) => gridExtent(g));
