@@ -8,7 +8,7 @@ import { ringOverlay } from '../geometry/ringOverlay.ts';
 import type { Extent, MultiPolygonRings, Ring } from '../geometry/types.ts';
 import type { Finding } from './findings.ts';
 import type { NoDataCover, NoDataMask } from './noDataMask.ts';
-import { middlePixelIsPure } from './pixelScreen.ts';
+import { middlePixelIsPure, noPixelFitsInBox } from './pixelScreen.ts';
 import { jstsOf, type PreparedPatch } from './preparedPatch.ts';
 import type { CheckSettings, SceneGrids } from './settings.ts';
 
@@ -116,7 +116,7 @@ function undersizedFinding(patch: PreparedPatch, settings: CheckSettings, scene:
     why = `covers ${round(area, 2)} m², under ${settings.minAreaInMsPixels} multispectral pixels (${round(minArea, 2)} m²)`;
   } else if (scene.ms && settings.minPurePixels > 0 && overlapsGrid(patch, scene.ms)
     && !(settings.minPurePixels === 1 && middlePixelIsPure(patch.shape!, scene.ms, patch.middle))) {
-    pure = countPurePixels(patch.shape!, scene.ms, settings.minPurePixels);
+    pure = noPixelFitsInBox(patch.extent!, scene.ms) ? 0 : countPurePixels(patch.shape!, scene.ms, settings.minPurePixels);
     if (pure < settings.minPurePixels) {
       why = `holds ${pure} pure multispectral pixel(s), fewer than ${settings.minPurePixels}`;
     }

@@ -1,10 +1,11 @@
 import type { RasterGrid } from '../geometry/rasterGrid.ts';
-import type { MultiPolygonRings, Position } from '../geometry/types.ts';
+import type { Extent, MultiPolygonRings, Position } from '../geometry/types.ts';
 
 // A quick, certain test that a patch holds at least one pure pixel: the grid pixel under
 // the middle of its outer ring lies wholly inside when no edge comes near that pixel's
 // footprint and the footprint's centre is inside. "No" only means "not shown this way":
-// the exact coverage (src/core/pixels/coverage.ts) then counts.
+// the exact coverage (src/core/pixels/coverage.ts) then counts. The converse, that a
+// small patch's box holds no whole pixel at all, spares the count for many undersized ones.
 
 /** Edges this close to a footprint (share of the pixel size) count as touching it. */
 const MARGIN = 1e-6;
@@ -58,4 +59,22 @@ export function middlePixelIsPure(shape: MultiPolygonRings, grid: RasterGrid, mi
     }
   }
   return inside;
+}
+
+/** Pixels that jut out of a patch's box by more than this share of their size are certainly not pure. */
+const JUT = 1e-3;
+
+/**
+ * A quick, certain test that a patch holds no pure pixel: no pixel of the grid fits
+ * within its box. A pure pixel lies within the outline, so within its box; one that
+ * juts out by more than a thousandth of its size misses at least that share of its
+ * area, far more than the full-cover tolerance of the exact count (1e-9), which would
+ * find none either. "No" means "not shown this way".
+ */
+export function noPixelFitsInBox(extent: Extent, grid: RasterGrid): boolean {
+  const { originX: ox, originY: oy, pixelWidth: pw, pixelHeight: ph } = grid;
+  // Whole columns and rows within the box grown by the allowance (col1, row1 exclusive).
+  const col0 = Math.ceil((extent[0] - JUT * pw - ox) / pw), col1 = Math.floor((extent[2] + JUT * pw - ox) / pw);
+  const row0 = Math.ceil((oy - extent[3] - JUT * ph) / ph), row1 = Math.floor((oy - extent[1] + JUT * ph) / ph);
+  return col1 <= col0 || row1 <= row0;
 }
