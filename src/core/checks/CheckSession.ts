@@ -9,12 +9,12 @@ import { preparePatch, type PatchInput, type PreparedPatch } from './preparedPat
 import { resolveSettings, type CheckSettings, type SceneGrids } from './settings.ts';
 
 // The checks over a whole site, kept current edit by edit. A full load checks each
-// patch and each pair of neighbouring boxes (found all at once, see boxPairs.ts); the
-// Flatbush tree over every patch's box that edits need is built at the first edit, or
-// sooner by compact(). After that, adding, changing or removing one patch re-checks only that patch
-// and its neighbours. Flatbush trees are static, so a changed patch leaves its old slot
-// dead and joins a short list of loose patches searched one by one; the tree is rebuilt
-// when that list grows long.
+// patch and each pair of neighbouring boxes (found all at once, see boxPairs.ts).
+// After that, adding, changing or removing one patch re-checks only that patch and its
+// neighbours, found in a Flatbush tree of every patch's box, built at the first edit
+// (or sooner by compact()). Flatbush trees are static, so a changed patch leaves its
+// old slot dead and joins a short list of loose patches searched one by one; the tree
+// is rebuilt when that list grows long.
 
 /** A patch's own figures, for the patch in hand. */
 export interface PatchFigures {
@@ -156,8 +156,8 @@ export class CheckSession {
     // entries in this same order, so its slots are these indices.
     const { start, partner } = boxPairs(slots.map((entry) => entry.patch.extent!), (e) => this.#index()!.search(e[0], e[1], e[2], e[3]));
     for (let i = 0; i < slots.length; i++) {
-      const patch = slots[i]!.patch;
-      for (let k = start[i]; k < start[i + 1]; k++) this.#link(patch, slots[partner[k]]!.patch);
+      const patch = slots[i].patch;
+      for (let k = start[i]; k < start[i + 1]; k++) this.#link(patch, slots[partner[k]].patch);
       if (++done === pause) {
         pause += chunk;
         yield done;
