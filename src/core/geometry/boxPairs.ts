@@ -41,8 +41,15 @@ function searchPairs(boxes: readonly Extent[], search: (box: Extent) => ArrayLik
 function gridPairs(boxes: readonly Extent[]): BoxPairs | null {
   const n = boxes.length;
   if (n < 2) return searchPairs(boxes, () => []);
+  // The boxes copied into flat arrays once: the passes below read them again and again.
+  const x0 = new Float64Array(n), y0 = new Float64Array(n), x1 = new Float64Array(n), y1 = new Float64Array(n);
   let gx0 = Infinity, gy0 = Infinity, gx1 = -Infinity, gy1 = -Infinity, sizes = 0;
-  for (const b of boxes) {
+  for (let i = 0; i < n; i++) {
+    const b = boxes[i];
+    x0[i] = b[0];
+    y0[i] = b[1];
+    x1[i] = b[2];
+    y1[i] = b[3];
     if (b[0] < gx0) gx0 = b[0];
     if (b[1] < gy0) gy0 = b[1];
     if (b[2] > gx1) gx1 = b[2];
@@ -60,11 +67,10 @@ function gridPairs(boxes: readonly Extent[]): BoxPairs | null {
   const c0 = new Int32Array(n), c1 = new Int32Array(n), r0 = new Int32Array(n), r1 = new Int32Array(n);
   let placed = 0;
   for (let i = 0; i < n; i++) {
-    const b = boxes[i];
-    c0[i] = Math.floor((b[0] - gx0) / side);
-    c1[i] = Math.floor((b[2] - gx0) / side);
-    r0[i] = Math.floor((b[1] - gy0) / side);
-    r1[i] = Math.floor((b[3] - gy0) / side);
+    c0[i] = Math.floor((x0[i] - gx0) / side);
+    c1[i] = Math.floor((x1[i] - gx0) / side);
+    r0[i] = Math.floor((y0[i] - gy0) / side);
+    r1[i] = Math.floor((y1[i] - gy0) / side);
     placed += (c1[i] - c0[i] + 1) * (r1[i] - r0[i] + 1);
   }
   if (placed > MAX_CELLS_PER_BOX * n) return null;
@@ -89,10 +95,10 @@ function gridPairs(boxes: readonly Extent[]): BoxPairs | null {
   for (let cell = 0; cell < cols * rows; cell++) {
     const col = cell % cols, row = (cell - col) / cols;
     for (let a = first[cell]; a < first[cell + 1]; a++) {
-      const i = items[a], bi = boxes[i];
+      const i = items[a];
       for (let b = a + 1; b < first[cell + 1]; b++) {
-        const j = items[b], bj = boxes[j];
-        if (bj[0] > bi[2] || bj[2] < bi[0] || bj[1] > bi[3] || bj[3] < bi[1]) continue;
+        const j = items[b];
+        if (x0[j] > x1[i] || x1[j] < x0[i] || y0[j] > y1[i] || y1[j] < y0[i]) continue;
         if (Math.max(c0[i], c0[j]) !== col || Math.max(r0[i], r0[j]) !== row) continue;
         if (count === low.length) {
           low = grow(low);
