@@ -2,6 +2,7 @@ import type { CheckDelta } from '../../core/checks/CheckSession.ts';
 import { compareFindings, countByKind, findingKey, type Finding, type FindingKind } from '../../core/checks/findings.ts';
 import type { CheckProgress, CheckScene, TrackedPatch } from './checkHost.ts';
 import type { CheckRunner } from './checkRunner.ts';
+import { nextTask } from '../../core/nextTask.ts';
 
 export type { TrackedPatch } from './checkHost.ts';
 
@@ -11,7 +12,7 @@ const keyOf = findingKey;
 const SLICE = 10_000;
 
 /** Lets the page answer input before the next slice. */
-const pause = () => new Promise((resolve) => setTimeout(resolve, 0));
+const pause = nextTask;
 
 /** A patch as last checked, and the sync that last saw it. */
 interface Known {

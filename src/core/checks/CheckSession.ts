@@ -7,6 +7,7 @@ import { pairFindings } from './pairFindings.ts';
 import { patchFindings } from './patchFindings.ts';
 import { preparePatch, type PatchInput, type PreparedPatch } from './preparedPatch.ts';
 import { resolveSettings, type CheckSettings, type SceneGrids } from './settings.ts';
+import { nextTask } from '../nextTask.ts';
 
 // The checks over a whole site, kept current edit by edit. A full load checks each
 // patch and each pair of neighbouring boxes (found all at once, see boxPairs.ts).
@@ -102,7 +103,7 @@ export class CheckSession {
     const steps = this.#loadSteps(list, progress.chunk ?? 2000);
     for (let step = steps.next(); !step.done; step = steps.next()) {
       progress.onProgress?.(step.value, list.length * 2);
-      await new Promise((resolve) => setTimeout(resolve, 0));
+      await nextTask();
       if (progress.signal?.aborted) {
         this.#clear();
         throw progress.signal.reason ?? new Error('the check was cancelled');
