@@ -140,7 +140,9 @@ export class CheckSession {
     let done = 0;
     // Whole chunks done pause the steps (a plain load passes Infinity: no pauses).
     let pause = chunk;
-    for (const input of patches) {
+    // An index loop: in a generator, for-of would allocate a result object per patch.
+    for (let i = 0; i < patches.length; i++) {
+      const input = patches[i];
       const entry = this.#check(input);
       this.#patches.set(input.id, entry);
       if (this.#patches.size === done) {
