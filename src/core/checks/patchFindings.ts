@@ -115,7 +115,7 @@ function undersizedFinding(patch: PreparedPatch, settings: CheckSettings, scene:
   if (area < minArea) {
     why = `covers ${round(area, 2)} m², under ${settings.minAreaInMsPixels} multispectral pixels (${round(minArea, 2)} m²)`;
   } else if (scene.ms && settings.minPurePixels > 0 && overlapsGrid(patch, scene.ms)
-    && !(settings.minPurePixels === 1 && middlePixelIsPure(patch.shape!, scene.ms, patch.middle))) {
+    && !(settings.minPurePixels === 1 && middlePixelIsPure(patch.shape!, patch.extent!, scene.ms))) {
     pure = noPixelFitsInBox(patch.extent!, scene.ms) ? 0 : countPurePixels(patch.shape!, scene.ms, settings.minPurePixels);
     if (pure < settings.minPurePixels) {
       why = `holds ${pure} pure multispectral pixel(s), fewer than ${settings.minPurePixels}`;

@@ -1,8 +1,8 @@
 import type { RasterGrid } from '../geometry/rasterGrid.ts';
-import type { Extent, MultiPolygonRings, Position } from '../geometry/types.ts';
+import type { Extent, MultiPolygonRings } from '../geometry/types.ts';
 
 // A quick, certain test that a patch holds at least one pure pixel: the grid pixel under
-// the middle of its outer ring lies wholly inside when no edge comes near that pixel's
+// the middle of its box lies wholly inside when no edge comes near that pixel's
 // footprint and the footprint's centre is inside. "No" only means "not shown this way":
 // the exact coverage (src/core/pixels/coverage.ts) then counts. The converse, that a
 // small patch's box holds no whole pixel at all, spares the count for many undersized ones.
@@ -11,24 +11,13 @@ import type { Extent, MultiPolygonRings, Position } from '../geometry/types.ts';
 const MARGIN = 1e-6;
 
 /**
- * Whether the pixel under the vertex mean of the first outer ring is certainly pure.
- * A caller that has that mean already passes it (`middle`), sparing a pass.
+ * Whether the pixel under the middle of the outline's box (`extent`) is certainly pure.
+ * For a crown that is about where the middle of its outline is, and it takes no pass.
  */
-export function middlePixelIsPure(shape: MultiPolygonRings, grid: RasterGrid, middle: Position | null = null): boolean {
-  const outer = shape[0]?.[0];
-  if (!outer || outer.length < 4) return false;
-  if (!middle) {
-    let mx = 0, my = 0;
-    const m = outer.length - 1;
-    for (let i = 0; i < m; i++) {
-      mx += outer[i][0];
-      my += outer[i][1];
-    }
-    middle = [mx / m, my / m];
-  }
+export function middlePixelIsPure(shape: MultiPolygonRings, extent: Extent, grid: RasterGrid): boolean {
   const { originX: ox, originY: oy, pixelWidth: pw, pixelHeight: ph } = grid;
-  const col = Math.floor((middle[0] - ox) / pw);
-  const row = Math.floor((oy - middle[1]) / ph);
+  const col = Math.floor(((extent[0] + extent[2]) / 2 - ox) / pw);
+  const row = Math.floor((oy - (extent[1] + extent[3]) / 2) / ph);
   if (!(col >= 0 && col < grid.width && row >= 0 && row < grid.height)) return false;
   const gap = MARGIN * Math.max(pw, ph);
   const x0 = ox + col * pw - gap, x1 = ox + (col + 1) * pw + gap;

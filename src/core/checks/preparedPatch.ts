@@ -30,8 +30,6 @@ export interface PreparedPatch {
   shape: MultiPolygonRings | null;
   area: number;
   extent: Extent | null;
-  /** Vertex mean of the outer ring (as ringIsStarAroundMean takes it), when prepared the quick way. */
-  middle: Position | null;
   /** Convex hull of the outline; built on first use by a neighbour test (see hullOf). */
   hull: Position[] | null;
   /** Built on first use by exactOverlap. */
@@ -61,7 +59,7 @@ export function preparePatch(input: PatchInput, settings: CheckSettings): Prepar
   }
   const area = shape ? multiPolygonArea(shape) : 0;
   const extent = shape ? extentOfRings(shape) : null;
-  return { input, issues, repair, shape, area, extent, middle: null, hull: null, jsts: null };
+  return { input, issues, repair, shape, area, extent, hull: null, jsts: null };
 }
 
 /**
@@ -69,8 +67,8 @@ export function preparePatch(input: PatchInput, settings: CheckSettings): Prepar
  * validityIssues calls a valid one-ring outline drawn round its middle (closed, finite,
  * no repeated neighbours, star-shaped around its vertex mean), with its area, extent
  * and vertex mean worked out on the way, each sum in the same order as
- * multiPolygonArea, extentOfRings and ringIsStarAroundMean take it, so the figures are
- * the same to the last bit. Null: take the long way.
+ * multiPolygonArea, extentOfRings and ringIsStarAroundMean take it, so the verdict and
+ * figures are the same to the last bit. Null: take the long way.
  */
 function plainStarPatch(input: PatchInput, maxVertices: number): PreparedPatch | null {
   const parts = input.rings;
@@ -105,9 +103,8 @@ function plainStarPatch(input: PatchInput, maxVertices: number): PreparedPatch |
   // The rounding allowance of determinantEpsilon, from the extent just found.
   const span = Math.max(maxX - minX, maxY - minY);
   const maxAbs = Math.max(Math.abs(minX), Math.abs(maxX), Math.abs(minY), Math.abs(maxY));
-  const middle: Position = [sumX / m, sumY / m];
-  if (!ringIsStarAround(ring, middle[0], middle[1], 8 * Number.EPSILON * span * (maxAbs + span))) return null;
-  return { input, issues: NO_ISSUES, repair: null, shape: parts, area: Math.abs(sum / 2), extent: [minX, minY, maxX, maxY], middle, hull: null, jsts: null };
+  if (!ringIsStarAround(ring, sumX / m, sumY / m, 8 * Number.EPSILON * span * (maxAbs + span))) return null;
+  return { input, issues: NO_ISSUES, repair: null, shape: parts, area: Math.abs(sum / 2), extent: [minX, minY, maxX, maxY], hull: null, jsts: null };
 }
 
 export function jstsOf(patch: PreparedPatch): JstsGeometry {
