@@ -101,10 +101,11 @@ describe('imagery views of the demo site', () => {
     await page.keyboard.press('w');
     await expect.poll(() => page.getAttribute('button:has-text("Swipe")', 'aria-pressed')).toBe('true');
     await mapReady(page);
+    // The late date fills the left part of the map only (its layer may draw a frame after
+    // the main one is complete).
+    await expect.poll(async () => (await layerCanvasStats(page, '.imagery-compare canvas')).opaqueShare, { timeout: 10_000 }).toBeGreaterThan(0.1);
     await screenshot(page, 'imagery-swipe');
     const compare = await layerCanvasStats(page, '.imagery-compare canvas');
-    // The late date fills the left part of the map only.
-    expect(compare.opaqueShare).toBeGreaterThan(0.1);
     expect(compare.opaqueShare).toBeLessThan(0.6);
     await page.keyboard.press('w');
     await mapReady(page);

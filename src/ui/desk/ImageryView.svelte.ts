@@ -134,9 +134,17 @@ export class ImageryView {
     return this.#layerFor(this.sceneIndex);
   }
 
-  /** The view waits for its stretch samples (not a view that cannot be shown): the map shows the one before meanwhile. */
+  /**
+   * The view, or the other date compared with it, waits for its stretch samples (not a
+   * view that cannot be shown): the map shows what it showed before meanwhile.
+   */
   get waiting(): boolean {
-    return this.layer === null && this.problem === null && this.stretchedKeys.some((key) => this.sampleOf(key) === null);
+    if (this.problem !== null) return false;
+    const missing = (scene: number) => this.stretchedKeys.some((key) => this.sampleOf(key, scene) === null);
+    if (this.layer === null && missing(this.sceneIndex)) return true;
+    if (this.compare === 'none' || this.site.scenes.length < 2) return false;
+    const other = (this.sceneIndex + 1) % this.site.scenes.length;
+    return this.compareLayer === null && missing(other);
   }
 
   /** The other date over this one, when comparing. */
