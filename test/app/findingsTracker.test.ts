@@ -56,4 +56,19 @@ describe('FindingsTracker', () => {
     const back = await tracker.sync([a, b]);
     expect(back.removed.map((f) => f.kind)).toContain('overlap-mixed');
   });
+
+  it('takes in a site larger than one slice, and still sees a deletion and an edit', { timeout: 60_000 }, async () => {
+    const random = seeded(3);
+    const patches = Array.from({ length: 25_000 }, (_, i) => ({
+      id: `q${i}`,
+      geometry: square((i % 200) * 5 + random(), Math.floor(i / 200) * 5 + random(), 2 + random() * 3),
+      species: ['ABFI', 'PIEX'][i % 2],
+    }));
+    const tracker = newTracker();
+    await tracker.load(patches);
+    expect(tracker.findings().map(key)).toEqual(fullCheck(patches));
+    const edited = patches.filter((_, i) => i !== 12_345).map((p, i) => (i === 20_000 ? { ...p, geometry: square(0, 0, 4) } : p));
+    await tracker.sync(edited);
+    expect(tracker.findings().map(key)).toEqual(fullCheck(edited));
+  });
 });

@@ -74,6 +74,11 @@ export class CheckHost {
     return this.#session.findings();
   }
 
+  /** Builds what edits need (the index over the patches) in an idle moment after a load. */
+  prepareEdits(): void {
+    this.#session.compact();
+  }
+
   /** Re-checks the changed and removed patches and their neighbours. */
   async apply(upserts: TrackedPatch[], removals: string[], signal?: AbortSignal): Promise<CheckDelta> {
     const inputs = upserts.map(toInput);

@@ -4,6 +4,7 @@ import type { CheckProgress, CheckScene, TrackedPatch } from './checkHost.ts';
 import type { ChecksMessage, ChecksReply } from './checks.worker.ts';
 import { packPatches } from './patchBatch.ts';
 import { callWorker, KEEP_LISTENING } from '../workerCall.ts';
+import { nextTask } from '../../core/nextTask.ts';
 
 // Who runs the checks: a worker in the app (the page stays responsive), the calling
 // thread in tests (inlineCheckRunner.ts). Both run CheckHost, so both apply the same
@@ -46,7 +47,7 @@ export class WorkerCheckRunner implements CheckRunner {
       const batch = packPatches(patches.slice(i, i + PATCH_BATCH));
       worker.postMessage({ kind: 'add', batch } satisfies ChecksMessage, [batch.coordinates.buffer, batch.structure.buffer]);
       // Let the page answer input between batches.
-      if (i + PATCH_BATCH < patches.length) await new Promise((resolve) => setTimeout(resolve, 0));
+      if (i + PATCH_BATCH < patches.length) await nextTask();
       if (signal?.aborted) {
         this.#end();
         throw abortError();

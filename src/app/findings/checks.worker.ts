@@ -51,6 +51,8 @@ async function handle(message: Exclude<ChecksMessage, { kind: 'bytes' | 'add' }>
       const findings = await host.load(patches, message.scene, (progress) => post({ kind: 'progress', id: message.id, progress }));
       for (let i = 0; i < findings.length; i += FINDINGS_BATCH) post({ kind: 'findings', id: message.id, findings: findings.slice(i, i + FINDINGS_BATCH) });
       post({ kind: 'loaded', id: message.id });
+      // The page has the findings; the first edit will not wait for the index.
+      host.prepareEdits();
     } else {
       post({ kind: 'applied', id: message.id, delta: await host.apply(message.upserts, message.removals) });
     }

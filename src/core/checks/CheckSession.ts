@@ -1,4 +1,5 @@
 import Flatbush from 'flatbush';
+import { boxPairs } from '../geometry/boxPairs.ts';
 import { countPurePixels } from '../geometry/purePixels.ts';
 import type { Extent } from '../geometry/types.ts';
 import { compareFindings, countByKind, type Finding, type FindingKind, type PatchId } from './findings.ts';
@@ -6,13 +7,15 @@ import { pairFindings } from './pairFindings.ts';
 import { patchFindings } from './patchFindings.ts';
 import { preparePatch, type PatchInput, type PreparedPatch } from './preparedPatch.ts';
 import { resolveSettings, type CheckSettings, type SceneGrids } from './settings.ts';
+import { nextTask } from '../nextTask.ts';
 
-// The checks over a whole site, kept current edit by edit. A full load indexes every
-// patch's box in a Flatbush tree and checks each patch and each pair of neighbouring
-// boxes. After that, adding, changing or removing one patch re-checks only that patch
-// and its neighbours. Flatbush trees are static, so a changed patch leaves its old slot
-// dead and joins a short list of loose patches searched one by one; the tree is rebuilt
-// when that list grows long.
+// The checks over a whole site, kept current edit by edit. A full load checks each
+// patch and each pair of neighbouring boxes (found all at once, see boxPairs.ts).
+// After that, adding, changing or removing one patch re-checks only that patch and its
+// neighbours, found in a Flatbush tree of every patch's box, built at the first edit
+// (or sooner by compact()). Flatbush trees are static, so a changed patch leaves its
+// old slot dead and joins a short list of loose patches searched one by one; the tree
+// is rebuilt when that list grows long.
 
 /** A patch's own figures, for the patch in hand. */
 export interface PatchFigures {
@@ -50,16 +53,31 @@ export interface CheckDelta {
  */
 const LOOSE_LIMIT = 2048;
 
+/** One patch in the session: kept in a single map, so a full load costs one map write per patch. */
+interface Entry {
+  patch: PreparedPatch;
+  /** Its own findings; only patches with some keep a list (see #single). */
+  single: Finding[];
+  /** Its place in the tree, or -1 while loose (or without an extent). */
+  slot: number;
+}
+
+/** The answer for most patches, shared (never changed). */
+const NONE: Finding[] = Object.freeze([]) as unknown as Finding[];
+
 export class CheckSession {
   readonly settings: CheckSettings;
   readonly scene: SceneGrids;
-  #patches = new Map<PatchId, PreparedPatch>();
-  #single = new Map<PatchId, Finding[]>();
+  #patches = new Map<PatchId, Entry>();
+  /** The entries with findings of their own, so listing them skips the many without. */
+  #single = new Set<Entry>();
   #pairs = new Map<PatchId, Map<PatchId, Finding[]>>();
   #tree: Flatbush | null = null;
-  #slots: (PatchId | null)[] = [];
-  #slotOf = new Map<PatchId, number>();
-  #loose = new Set<PatchId>();
+  /** Whether #tree and the slots cover every patch not in #loose (false after a load). */
+  #indexed = false;
+  /** Tree slot -> entry; null once the entry left its slot. */
+  #slots: (Entry | null)[] = [];
+  #loose = new Set<Entry>();
 
   constructor(options: CheckSessionOptions = {}) {
     this.scene = options.scene ?? {};
@@ -85,7 +103,7 @@ export class CheckSession {
     const steps = this.#loadSteps(list, progress.chunk ?? 2000);
     for (let step = steps.next(); !step.done; step = steps.next()) {
       progress.onProgress?.(step.value, list.length * 2);
-      await new Promise((resolve) => setTimeout(resolve, 0));
+      await nextTask();
       if (progress.signal?.aborted) {
         this.#clear();
         throw progress.signal.reason ?? new Error('the check was cancelled');
@@ -96,7 +114,7 @@ export class CheckSession {
 
   /** A patch's area and pure pixel count, or null for an unknown id. */
   figures(id: PatchId): PatchFigures | null {
-    const patch = this.#patches.get(id);
+    const patch = this.#patches.get(id)?.patch;
     if (!patch) return null;
     const ms = this.scene.ms;
     return {
@@ -113,70 +131,87 @@ export class CheckSession {
     this.#loose.clear();
     this.#tree = null;
     this.#slots = [];
-    this.#slotOf.clear();
+    this.#indexed = false;
   }
 
   /** The full check as a sequence of steps; yields work done after each chunk. */
   *#loadSteps(patches: PatchInput[], chunk: number): Generator<number, void> {
     this.#clear();
     let done = 0;
-    for (const input of patches) {
-      if (this.#patches.has(input.id)) {
+    // Whole chunks done pause the steps (a plain load passes Infinity: no pauses).
+    let pause = chunk;
+    // An index loop: in a generator, for-of would allocate a result object per patch.
+    for (let i = 0; i < patches.length; i++) {
+      const input = patches[i];
+      const entry = this.#check(input);
+      this.#patches.set(input.id, entry);
+      if (this.#patches.size === done) {
         this.#clear();
         throw new RangeError(`patch id ${JSON.stringify(input.id)} appears twice`);
       }
-      const patch = preparePatch(input, this.settings);
-      this.#patches.set(input.id, patch);
-      this.#single.set(input.id, patchFindings(patch, this.settings, this.scene));
-      if (++done % chunk === 0) yield done;
-    }
-    this.#rebuildTree();
-    const tree = this.#tree;
-    if (!tree) return;
-    for (let i = 0; i < this.#slots.length; i++) {
-      const patch = this.#patches.get(this.#slots[i]!)!;
-      const [x0, y0, x1, y1] = patch.extent!;
-      for (const j of tree.search(x0, y0, x1, y1)) {
-        if (j <= i) continue;
-        this.#link(patch, this.#patches.get(this.#slots[j]!)!);
+      if (++done === pause) {
+        pause += chunk;
+        yield done;
       }
-      if (++done % chunk === 0) yield done;
+    }
+    const slots = this.#indexable();
+    // The tree, built only when the boxes are too uneven for the grid, takes the
+    // entries in this same order, so its slots are these indices.
+    const { start, partner } = boxPairs(slots.map((entry) => entry.patch.extent!), (e) => this.#index()!.search(e[0], e[1], e[2], e[3]));
+    for (let i = 0; i < slots.length; i++) {
+      const patch = slots[i].patch;
+      for (let k = start[i]; k < start[i + 1]; k++) this.#link(patch, slots[partner[k]].patch);
+      if (++done === pause) {
+        pause += chunk;
+        yield done;
+      }
     }
   }
 
   /** Adds a patch or replaces the one with its id, re-checking it and its neighbours. */
   upsert(input: PatchInput): CheckDelta {
-    const removed = this.#patches.has(input.id) ? this.#detach(input.id) : [];
-    const patch = preparePatch(input, this.settings);
-    this.#patches.set(input.id, patch);
-    const own = patchFindings(patch, this.settings, this.scene);
-    this.#single.set(input.id, own);
-    const added = [...own];
+    this.#index();
+    const old = this.#patches.get(input.id);
+    const removed = old ? this.#detach(old) : [];
+    const entry = this.#check(input);
+    this.#patches.set(input.id, entry);
+    const { patch } = entry;
+    const added = [...entry.single];
     if (patch.extent) {
-      for (const other of this.#neighbours(patch.extent, input.id)) added.push(...this.#link(patch, other));
-      this.#loose.add(input.id);
+      for (const other of this.#neighbours(patch.extent, entry)) added.push(...this.#link(patch, other));
+      this.#loose.add(entry);
       if (this.#loose.size > LOOSE_LIMIT) this.#rebuildTree();
     }
     return { removed, added };
   }
 
+  /** Prepares and checks one patch on its own. */
+  #check(input: PatchInput): Entry {
+    const patch = preparePatch(input, this.settings);
+    const single = patchFindings(patch, this.settings, this.scene);
+    const entry: Entry = { patch, single: single.length ? single : NONE, slot: -1 };
+    if (single.length) this.#single.add(entry);
+    return entry;
+  }
+
   /** Removes a patch and every finding that involved it. */
   remove(id: PatchId): CheckDelta {
-    if (!this.#patches.has(id)) return { removed: [], added: [] };
-    const removed = this.#detach(id);
+    const entry = this.#patches.get(id);
+    if (!entry) return { removed: [], added: [] };
+    const removed = this.#detach(entry);
     this.#patches.delete(id);
     return { removed, added: [] };
   }
 
-  /** Rebuilds the index over all patches now (for an idle moment after many edits). */
+  /** Builds the index over all patches now (for an idle moment after a load or many edits). */
   compact(): void {
-    if (this.#loose.size > 0) this.#rebuildTree();
+    if (this.#loose.size > 0 || !this.#indexed) this.#rebuildTree();
   }
 
   /** Every current finding, in a stable order (kind, then patch ids). */
   findings(): Finding[] {
     const all: Finding[] = [];
-    for (const list of this.#single.values()) all.push(...list);
+    for (const entry of this.#single) all.push(...entry.single);
     for (const [id, partners] of this.#pairs) {
       for (const [other, list] of partners) if (compareKey(id, other) < 0) all.push(...list);
     }
@@ -185,7 +220,7 @@ export class CheckSession {
 
   /** The findings that involve one patch. */
   findingsOf(id: PatchId): Finding[] {
-    const list = [...(this.#single.get(id) ?? [])];
+    const list = [...(this.#patches.get(id)?.single ?? [])];
     for (const pair of this.#pairs.get(id)?.values() ?? []) list.push(...pair);
     return list.sort(compareFindings);
   }
@@ -209,9 +244,10 @@ export class CheckSession {
   }
 
   /** Drops a patch's findings and its place in the index; returns the findings dropped. */
-  #detach(id: PatchId): Finding[] {
-    const removed = [...(this.#single.get(id) ?? [])];
-    this.#single.delete(id);
+  #detach(entry: Entry): Finding[] {
+    const id = entry.patch.input.id;
+    const removed = [...entry.single];
+    this.#single.delete(entry);
     const partners = this.#pairs.get(id);
     if (partners) {
       for (const [other, list] of partners) {
@@ -222,45 +258,55 @@ export class CheckSession {
       }
       this.#pairs.delete(id);
     }
-    const slot = this.#slotOf.get(id);
-    if (slot !== undefined) {
-      this.#slots[slot] = null;
-      this.#slotOf.delete(id);
-    }
-    this.#loose.delete(id);
+    if (entry.slot >= 0) this.#slots[entry.slot] = null;
+    this.#loose.delete(entry);
     return removed;
   }
 
   /** Patches whose boxes meet `extent`, from the tree and the loose list. */
-  #neighbours(extent: Extent, self: PatchId): PreparedPatch[] {
+  #neighbours(extent: Extent, self: Entry): PreparedPatch[] {
     const [x0, y0, x1, y1] = extent;
     const out: PreparedPatch[] = [];
     if (this.#tree) {
       for (const slot of this.#tree.search(x0, y0, x1, y1)) {
-        const id = this.#slots[slot];
-        if (id !== null && id !== self) out.push(this.#patches.get(id)!);
+        const entry = this.#slots[slot];
+        if (entry !== null && entry !== self) out.push(entry.patch);
       }
     }
-    for (const id of this.#loose) {
-      if (id === self) continue;
-      const other = this.#patches.get(id)!;
-      const e = other.extent!;
-      if (e[0] <= x1 && e[2] >= x0 && e[1] <= y1 && e[3] >= y0) out.push(other);
+    for (const entry of this.#loose) {
+      if (entry === self) continue;
+      const e = entry.patch.extent!;
+      if (e[0] <= x1 && e[2] >= x0 && e[1] <= y1 && e[3] >= y0) out.push(entry.patch);
     }
     return out;
   }
 
+  /** The patches with a box, in the order the tree takes them. */
+  #indexable(): Entry[] {
+    const out: Entry[] = [];
+    for (const entry of this.#patches.values()) if (entry.patch.extent) out.push(entry);
+    return out;
+  }
+
+  /** The tree, built first if a load left it unbuilt. */
+  #index(): Flatbush | null {
+    if (!this.#indexed) this.#rebuildTree();
+    return this.#tree;
+  }
+
   #rebuildTree(): void {
-    const indexed = [...this.#patches.values()].filter((p) => p.extent);
-    this.#slots = indexed.map((p) => p.input.id);
-    this.#slotOf = new Map(this.#slots.map((id, slot) => [id!, slot]));
+    for (const entry of this.#patches.values()) entry.slot = -1;
+    const slots = this.#indexable();
+    slots.forEach((entry, slot) => (entry.slot = slot));
+    this.#slots = slots;
     this.#loose.clear();
-    if (indexed.length === 0) {
+    this.#indexed = true;
+    if (slots.length === 0) {
       this.#tree = null;
       return;
     }
-    const tree = new Flatbush(indexed.length);
-    for (const p of indexed) tree.add(p.extent![0], p.extent![1], p.extent![2], p.extent![3]);
+    const tree = new Flatbush(slots.length);
+    for (const { patch: { extent: e } } of slots) tree.add(e![0], e![1], e![2], e![3]);
     tree.finish();
     this.#tree = tree;
   }

@@ -69,11 +69,11 @@ export function compareIds(a: PatchId, b: PatchId): number {
   return a < b ? -1 : a > b ? 1 : 0;
 }
 
-const kindOrder = new Map(FINDING_KINDS.map((k, i) => [k, i]));
+const kindOrder = Object.fromEntries(FINDING_KINDS.map((k, i) => [k, i])) as Record<FindingKind, number>;
 
 /** Stable order for a findings list: by kind, then by the patches involved. */
 export function compareFindings(a: Finding, b: Finding): number {
-  const byKind = kindOrder.get(a.kind)! - kindOrder.get(b.kind)!;
+  const byKind = kindOrder[a.kind] - kindOrder[b.kind];
   if (byKind) return byKind;
   const n = Math.min(a.patches.length, b.patches.length);
   for (let i = 0; i < n; i++) {

@@ -23,7 +23,8 @@ export function pairFindings(first: PreparedPatch, second: PreparedPatch, settin
   const w = Math.min(ea[2], eb[2]) - Math.max(ea[0], eb[0]);
   const h = Math.min(ea[3], eb[3]) - Math.max(ea[1], eb[1]);
   if (w <= 0 || h <= 0 || w * h <= settings.sliverAreaM2) return NONE;
-  const [a, b] = compareIds(first.input.id, second.input.id) <= 0 ? [first, second] : [second, first];
+  const inOrder = compareIds(first.input.id, second.input.id) <= 0;
+  const a = inOrder ? first : second, b = inOrder ? second : first;
   if (hullsApart(hullOf(a), hullOf(b), TOUCH_TOLERANCE)) return NONE;
 
   const overlap = exactOverlap(a.shape!, b.shape!, () => jstsOf(a), () => jstsOf(b));

@@ -8,7 +8,7 @@ import { ringOverlay } from '../geometry/ringOverlay.ts';
 import type { Extent, MultiPolygonRings, Ring } from '../geometry/types.ts';
 import type { Finding } from './findings.ts';
 import type { NoDataCover, NoDataMask } from './noDataMask.ts';
-import { middlePixelIsPure } from './pixelScreen.ts';
+import { middlePixelIsPure, noPixelFitsInBox } from './pixelScreen.ts';
 import { jstsOf, type PreparedPatch } from './preparedPatch.ts';
 import type { CheckSettings, SceneGrids } from './settings.ts';
 
@@ -17,14 +17,16 @@ import type { CheckSettings, SceneGrids } from './settings.ts';
 const round = (value: number, digits = 3) => Math.round(value * 10 ** digits) / 10 ** digits;
 const percent = (share: number) => `${Math.round(share * 1000) / 10} %`;
 
+/** The answer for most patches, shared (never changed by callers). */
+const NONE: Finding[] = Object.freeze([]) as unknown as Finding[];
+
 export function patchFindings(patch: PreparedPatch, settings: CheckSettings, scene: SceneGrids): Finding[] {
-  const found = [
-    invalidFinding(patch),
-    mixedTagFinding(patch, settings),
-    patch.shape ? undersizedFinding(patch, settings, scene) : null,
-    patch.shape ? offImageFinding(patch, settings, scene) : null,
-  ];
-  return found[0] || found[1] || found[2] || found[3] ? found.filter((f) => f !== null) : [];
+  const invalid = invalidFinding(patch);
+  const mixed = mixedTagFinding(patch, settings);
+  const undersized = patch.shape ? undersizedFinding(patch, settings, scene) : null;
+  const offImage = patch.shape ? offImageFinding(patch, settings, scene) : null;
+  if (!invalid && !mixed && !undersized && !offImage) return NONE;
+  return [invalid, mixed, undersized, offImage].filter((f) => f !== null);
 }
 
 function invalidFinding(patch: PreparedPatch): Finding | null {
@@ -57,20 +59,34 @@ function invalidFinding(patch: PreparedPatch): Finding | null {
   };
 }
 
-const mixedSets = new WeakMap<CheckSettings, Set<string>>();
+interface MixedCodes {
+  /** The "mixed" codes in lower case. */
+  codes: Set<string>;
+  /** Whether a species call as written means mixed: a site has a handful of calls. */
+  calls: Map<string, boolean>;
+}
 
-/** The "mixed" codes in lower case, made once per settings object. */
-function mixedCodeSet(settings: CheckSettings): Set<string> {
+const mixedSets = new WeakMap<CheckSettings, MixedCodes>();
+
+/** The "mixed" codes, made once per settings object. */
+function mixedCodeSet(settings: CheckSettings): MixedCodes {
   let set = mixedSets.get(settings);
-  if (!set) mixedSets.set(settings, (set = new Set(settings.mixedCodes.map((c) => c.toLowerCase()))));
+  if (!set) mixedSets.set(settings, (set = { codes: new Set(settings.mixedCodes.map((c) => c.toLowerCase())), calls: new Map() }));
   return set;
+}
+
+function isMixedCall(species: string, mixed: MixedCodes): boolean {
+  let answer = mixed.calls.get(species);
+  if (answer === undefined) mixed.calls.set(species, (answer = mixed.codes.has(species.trim().toLowerCase())));
+  return answer;
 }
 
 function mixedTagFinding(patch: PreparedPatch, settings: CheckSettings): Finding | null {
   const { input } = patch;
-  const mixedCodes = mixedCodeSet(settings);
+  const mixed = mixedCodeSet(settings);
   // Most patches carry one call that is not "mixed": nothing to build.
-  if (!input.tags?.length && !mixedCodes.has(input.species.trim().toLowerCase())) return null;
+  if (!input.tags?.length && !isMixedCall(input.species, mixed)) return null;
+  const mixedCodes = mixed.codes;
   const calls = [input.species, ...(input.tags ?? []).map((t) => t.species)].map((s) => s.trim());
   const taggedMixed = calls.some((c) => mixedCodes.has(c.toLowerCase()));
   const distinct = [...new Set(calls)].sort();
@@ -99,8 +115,8 @@ function undersizedFinding(patch: PreparedPatch, settings: CheckSettings, scene:
   if (area < minArea) {
     why = `covers ${round(area, 2)} m², under ${settings.minAreaInMsPixels} multispectral pixels (${round(minArea, 2)} m²)`;
   } else if (scene.ms && settings.minPurePixels > 0 && overlapsGrid(patch, scene.ms)
-    && !(settings.minPurePixels === 1 && middlePixelIsPure(patch.shape!, scene.ms))) {
-    pure = countPurePixels(patch.shape!, scene.ms, settings.minPurePixels);
+    && !(settings.minPurePixels === 1 && middlePixelIsPure(patch.shape!, patch.extent!, scene.ms))) {
+    pure = noPixelFitsInBox(patch.extent!, scene.ms) ? 0 : countPurePixels(patch.shape!, scene.ms, settings.minPurePixels);
     if (pure < settings.minPurePixels) {
       why = `holds ${pure} pure multispectral pixel(s), fewer than ${settings.minPurePixels}`;
     }
@@ -124,21 +140,30 @@ function undersizedFinding(patch: PreparedPatch, settings: CheckSettings, scene:
 }
 
 const gridExtents = new WeakMap<RasterGrid, Extent>();
+/** The grid asked about last, and its extent: a site's patches ask of one grid in turn. */
+let lastGrid: { grid: RasterGrid; extent: Extent } | null = null;
 
 /** Whether the patch's box meets the grid at all: off the grid, off-image says it all. */
 function overlapsGrid(patch: PreparedPatch, grid: RasterGrid): boolean {
-  const g = gridExtents.get(grid) ?? gridExtents.set(grid, gridExtent(grid)).get(grid)!;
+  if (lastGrid?.grid !== grid) {
+    lastGrid = { grid, extent: gridExtents.get(grid) ?? gridExtents.set(grid, gridExtent(grid)).get(grid)! };
+  }
+  const g = lastGrid.extent;
   const e = patch.extent!;
   return e[0] < g[2] && e[2] > g[0] && e[1] < g[3] && e[3] > g[1];
 }
 
 /** The rectangle every given raster covers (their intersection), or null with no scene. */
 export function sceneExtent(scene: SceneGrids): Extent | null {
+  if (lastScene?.scene === scene) return lastScene.extent;
   if (!sceneExtents.has(scene)) sceneExtents.set(scene, extentOfScene(scene));
-  return sceneExtents.get(scene)!;
+  lastScene = { scene, extent: sceneExtents.get(scene)! };
+  return lastScene.extent;
 }
 
 const sceneExtents = new WeakMap<SceneGrids, Extent | null>();
+/** The scene asked about last, and its extent (as lastGrid). */
+let lastScene: { scene: SceneGrids; extent: Extent | null } | null = null;
 
 function extentOfScene(scene: SceneGrids): Extent | null {
   const extents = [scene.pan, scene.ms].filter((g) => g !== undefined).map((g) => gridExtent(g));

@@ -52,11 +52,16 @@ function openCcw(ring: Ring): Position[] {
 function crossings(a: Position[], b: Position[]): Crossing[] | null {
   const out: Crossing[] = [];
   const n = a.length, m = b.length;
+  // Only edges that meet the other ring's box can meet any of its edges: pairing just
+  // those (in the same order) finds the same crossings with far fewer box tests.
+  const nearA = edgesMeeting(b, boxOf(a));
+  const boxB = boxOf(b);
   for (let i = 0; i < n; i++) {
     const p = a[i], q = a[(i + 1) % n];
     const minX = Math.min(p[0], q[0]), maxX = Math.max(p[0], q[0]);
     const minY = Math.min(p[1], q[1]), maxY = Math.max(p[1], q[1]);
-    for (let j = 0; j < m; j++) {
+    if (boxB[2] < minX || boxB[0] > maxX || boxB[3] < minY || boxB[1] > maxY) continue;
+    for (const j of nearA) {
       const r = b[j], s = b[(j + 1) % m];
       if (Math.max(r[0], s[0]) < minX || Math.min(r[0], s[0]) > maxX
         || Math.max(r[1], s[1]) < minY || Math.min(r[1], s[1]) > maxY) continue;
@@ -85,6 +90,31 @@ function crossings(a: Position[], b: Position[]): Crossing[] | null {
   return out;
 }
 
+/** [minX, minY, maxX, maxY] of an open ring's positions. */
+function boxOf(ring: Position[]): [number, number, number, number] {
+  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  for (const p of ring) {
+    if (p[0] < minX) minX = p[0];
+    if (p[0] > maxX) maxX = p[0];
+    if (p[1] < minY) minY = p[1];
+    if (p[1] > maxY) maxY = p[1];
+  }
+  return [minX, minY, maxX, maxY];
+}
+
+/** Indices, in order, of the open ring's edges whose boxes meet `box` (closed boxes). */
+function edgesMeeting(ring: Position[], box: [number, number, number, number]): number[] {
+  const out: number[] = [];
+  const m = ring.length;
+  for (let j = 0; j < m; j++) {
+    const r = ring[j], s = ring[(j + 1) % m];
+    if (Math.max(r[0], s[0]) < box[0] || Math.min(r[0], s[0]) > box[2]
+      || Math.max(r[1], s[1]) < box[1] || Math.min(r[1], s[1]) > box[3]) continue;
+    out.push(j);
+  }
+  return out;
+}
+
 /** Whether p is inside the ring (open: no closing repeat); null when in doubt. */
 export function inside(p: Position, ring: Position[]): boolean | null {
   let odd = false;
@@ -102,6 +132,22 @@ export function inside(p: Position, ring: Position[]): boolean | null {
 const close = (ring: Position[]): Ring => [...ring, ring[0]];
 
 /**
+ * A stable sorted copy; by insertion when short: two crowns' boundaries cross a few
+ * times, and for so few items Array.prototype.sort's set-up costs more than the sorting.
+ */
+function sortedCopy<T>(items: T[], compare: (a: T, b: T) => number): T[] {
+  const out = [...items];
+  if (out.length > 16) return out.sort(compare);
+  for (let i = 1; i < out.length; i++) {
+    const item = out[i];
+    let j = i;
+    for (; j > 0 && compare(out[j - 1], item) > 0; j--) out[j] = out[j - 1];
+    out[j] = item;
+  }
+  return out;
+}
+
+/**
  * A ∩ B or A − B of two valid single rings (closed, simple), as polygons with outer
  * rings counter-clockwise and holes clockwise; null when the case is degenerate.
  */
@@ -114,8 +160,8 @@ export function ringOverlay(ringA: Ring, ringB: Ring, op: 'intersection' | 'diff
   if (found.length % 2 === 1) return null;
 
   // Order the crossings along each ring; two at one place cannot be ordered.
-  const alongA = [...found].sort((x, y) => x.edgeA - y.edgeA || x.alongA - y.alongA);
-  const alongB = [...found].sort((x, y) => x.edgeB - y.edgeB || x.alongB - y.alongB);
+  const alongA = sortedCopy(found, (x, y) => x.edgeA - y.edgeA || x.alongA - y.alongA);
+  const alongB = sortedCopy(found, (x, y) => x.edgeB - y.edgeB || x.alongB - y.alongB);
   for (let k = 1; k < found.length; k++) {
     if (alongA[k].edgeA === alongA[k - 1].edgeA && alongA[k].alongA === alongA[k - 1].alongA) return null;
     if (alongB[k].edgeB === alongB[k - 1].edgeB && alongB[k].alongB === alongB[k - 1].alongB) return null;

@@ -55,8 +55,13 @@ export function ringIsStarAroundMean(ring: Ring, eps: number = determinantEpsilo
     cx += ring[i][0];
     cy += ring[i][1];
   }
-  cx /= m;
-  cy /= m;
+  return ringIsStarAround(ring, cx / m, cy / m, eps);
+}
+
+/** ringIsStarAroundMean with the vertex mean (cx, cy) given, for a caller that has it. */
+export function ringIsStarAround(ring: Ring, cx: number, cy: number, eps: number): boolean {
+  const m = ring.length - 1;
+  if (m < 3) return false;
   let turn = 0;
   let rounds = 0;
   let px = ring[0][0] - cx, py = ring[0][1] - cy;

@@ -1,7 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { CheckSession } from '../../../src/core/checks/CheckSession.ts';
-import type { Finding } from '../../../src/core/checks/findings.ts';
-import type { PatchInput } from '../../../src/core/checks/preparedPatch.ts';
+import { compareFindings, type Finding } from '../../../src/core/checks/findings.ts';
+import { pairFindings } from '../../../src/core/checks/pairFindings.ts';
+import { patchFindings } from '../../../src/core/checks/patchFindings.ts';
+import { preparePatch, type PatchInput } from '../../../src/core/checks/preparedPatch.ts';
+import { resolveSettings } from '../../../src/core/checks/settings.ts';
 import { runChecks } from '../../../src/core/checks/runChecks.ts';
 import type { Ring } from '../../../src/core/geometry/types.ts';
 import { Random } from '../../../src/core/random.ts';
@@ -172,5 +175,34 @@ describe('findings do not depend on vertex start, winding or patch order', () =>
       [shuffled[i], shuffled[j]] = [shuffled[j], shuffled[i]];
     }
     expectSameFindings(runChecks(shuffled, { scene }).findings, reference);
+  });
+});
+
+describe('a full load finds exactly what trying every pair finds', () => {
+  /** The checks with every pair of patches tried and no index: the plain definition. */
+  function everyPair(patches: PatchInput[]): Finding[] {
+    const settings = resolveSettings({}, scene);
+    const prepared = patches.map((p) => preparePatch(p, settings));
+    const all = prepared.flatMap((p) => patchFindings(p, settings, scene));
+    for (let i = 0; i < prepared.length; i++) {
+      for (let j = i + 1; j < prepared.length; j++) all.push(...pairFindings(prepared[i], prepared[j], settings));
+    }
+    return all.sort(compareFindings);
+  }
+
+  for (const seed of [11, 12, 13]) {
+    it(`on a seeded site of 1,000 patches (seed ${seed})`, () => {
+      const site = testSite(1000, seed);
+      expect(runChecks(site, { scene }).findings).toEqual(everyPair(site));
+    });
+  }
+
+  it('when a few huge patches make the boxes too uneven for the grid', () => {
+    const site = testSite(600, 14);
+    for (let i = 0; i < 30; i++) {
+      const x = 600000 + i * 3, y = 5100000 + i * 2, s = 200 - i * 4;
+      site.push({ id: `big${i}`, species: SPECIES[i % SPECIES.length], rings: [[[[x, y], [x + s, y], [x + s, y + s], [x, y + s], [x, y]]]] });
+    }
+    expect(runChecks(site, { scene }).findings).toEqual(everyPair(site));
   });
 });

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { middlePixelIsPure } from '../../../src/core/checks/pixelScreen.ts';
+import { middlePixelIsPure, noPixelFitsInBox } from '../../../src/core/checks/pixelScreen.ts';
+import { extentOfRings } from '../../../src/core/geometry/measure.ts';
 import { coverageWindow } from '../../../src/core/pixels/coverage.ts';
 import type { RasterGrid } from '../../../src/core/geometry/rasterGrid.ts';
 import type { Ring } from '../../../src/core/geometry/types.ts';
@@ -30,13 +31,11 @@ describe('middlePixelIsPure', () => {
     let said = 0;
     for (let t = 0; t < 2000; t++) {
       const ring = crown(random, random.uniform(0.5, 5));
-      if (!middlePixelIsPure([[ring]], grid)) continue;
+      const box = extentOfRings([ring]);
+      if (!middlePixelIsPure([[ring]], box, grid)) continue;
       said++;
-      const m = ring.length - 1;
-      const mx = ring.slice(0, m).reduce((s, p) => s + p[0], 0) / m;
-      const my = ring.slice(0, m).reduce((s, p) => s + p[1], 0) / m;
-      const col = Math.floor((mx - grid.originX) / grid.pixelWidth);
-      const row = Math.floor((grid.originY - my) / grid.pixelHeight);
+      const col = Math.floor(((box[0] + box[2]) / 2 - grid.originX) / grid.pixelWidth);
+      const row = Math.floor((grid.originY - (box[1] + box[3]) / 2) / grid.pixelHeight);
       const cover = coverageWindow([[ring]], grid);
       expect(cover.fraction[(row - cover.row0) * cover.width + (col - cover.col0)]).toBeGreaterThanOrEqual(1 - 1e-9);
     }
@@ -47,9 +46,35 @@ describe('middlePixelIsPure', () => {
     const shell: Ring = [[600010, 5100010], [600030, 5100010], [600030, 5100030], [600010, 5100030], [600010, 5100010]];
     // A hole round the middle (600020, 5100020) covering its pixel.
     const hole: Ring = [[600018, 5100018], [600018, 5100022], [600022, 5100022], [600022, 5100018], [600018, 5100018]];
-    expect(middlePixelIsPure([[shell]], grid)).toBe(true);
-    expect(middlePixelIsPure([[shell, hole]], grid)).toBe(false);
+    expect(middlePixelIsPure([[shell]], extentOfRings([shell]), grid)).toBe(true);
+    expect(middlePixelIsPure([[shell, hole]], extentOfRings([shell]), grid)).toBe(false);
     const off = shell.map(([x, y]) => [x - 1000, y] as [number, number]);
-    expect(middlePixelIsPure([[off]], grid)).toBe(false);
+    expect(middlePixelIsPure([[off]], extentOfRings([off]), grid)).toBe(false);
+  });
+});
+
+describe('noPixelFitsInBox', () => {
+  it('says "none" only for patches whose exact coverage has no wholly covered pixel', () => {
+    const random = new Random(8);
+    let said = 0;
+    for (let t = 0; t < 3000; t++) {
+      const ring = crown(random, random.uniform(0.4, 2.5));
+      if (!noPixelFitsInBox(extentOfRings([ring]), grid)) continue;
+      said++;
+      const cover = coverageWindow([[ring]], grid);
+      expect(cover.fraction.every((f) => f < 1 - 1e-9)).toBe(true);
+    }
+    expect(said).toBeGreaterThan(600);
+  });
+
+  it('leaves a patch that covers one pixel exactly, or all but a sliver of it, to the exact count', () => {
+    const x = grid.originX + 12 * grid.pixelWidth, y = grid.originY - 20 * grid.pixelHeight;
+    const pixel: Ring = [[x, y], [x + 1.2, y], [x + 1.2, y + 1.2], [x, y + 1.2], [x, y]];
+    expect(noPixelFitsInBox(extentOfRings([pixel]), grid)).toBe(false);
+    const short: Ring = pixel.map(([px, py]) => [px === x ? x + 1e-6 : px, py] as [number, number]);
+    expect(noPixelFitsInBox(extentOfRings([short]), grid)).toBe(false);
+    // Short by a tenth of the pixel: nothing fits.
+    const shorter: Ring = pixel.map(([px, py]) => [px === x ? x + 0.12 : px, py] as [number, number]);
+    expect(noPixelFitsInBox(extentOfRings([shorter]), grid)).toBe(true);
   });
 });
