@@ -7,6 +7,10 @@ import globals from 'globals';
 // UI, storage, imagery or desktop frameworks; the UI never touches Dexie or geotiff.js.
 const coreForbidden = ['svelte', 'svelte/*', 'ol', 'ol/*', 'dexie', 'electron', 'geotiff'];
 const coreForbiddenPaths = ['**/ui/**', '**/app/**', '**/store/**', '**/imagery/**', '**/platform/**', '**/cli/**'];
+const corePatterns = [
+  { group: coreForbidden, message: 'src/core is pure: no framework, storage, imagery or desktop imports.' },
+  { group: coreForbiddenPaths, message: 'src/core must not import from the layers above it.' },
+];
 
 export default tseslint.config(
   { ignores: ['dist/**', 'dist-electron/**', 'node_modules/**', 'demo/**', 'e2e/artifacts/**', 'bench/out/**'] },
@@ -26,12 +30,7 @@ export default tseslint.config(
   {
     files: ['src/core/**/*.ts'],
     rules: {
-      'no-restricted-imports': ['error', {
-        patterns: [
-          { group: coreForbidden, message: 'src/core is pure: no framework, storage, imagery or desktop imports.' },
-          { group: coreForbiddenPaths, message: 'src/core must not import from the layers above it.' },
-        ],
-      }],
+      'no-restricted-imports': ['error', { patterns: corePatterns }],
       'no-restricted-globals': ['error', 'document', 'window', 'indexedDB', 'localStorage'],
     },
   },
@@ -41,11 +40,7 @@ export default tseslint.config(
     files: ['src/core/tiff/**/*.ts'],
     rules: {
       'no-restricted-imports': ['error', {
-        patterns: [
-          { group: coreForbidden, message: 'src/core is pure: no framework, storage, imagery or desktop imports.' },
-          { group: coreForbiddenPaths, message: 'src/core must not import from the layers above it.' },
-          { group: ['proj4', '**/crs.ts'], message: 'The TIFF inspector stays free of proj4: use ../crsNames.ts.' },
-        ],
+        patterns: [...corePatterns, { group: ['proj4', '**/crs.ts'], message: 'The TIFF inspector stays free of proj4: use ../crsNames.ts.' }],
       }],
     },
   },
