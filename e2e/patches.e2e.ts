@@ -123,6 +123,9 @@ describe('drawing and tagging a patch by keys', () => {
 
   it('cuts the patch in hand with a line, joins the pieces again, and undoes each in one step', async () => {
     const { page } = session!;
+    // A click is a single click only after the double-click wait, then the edit is
+    // committed durably: on a busy machine that takes more than the default second.
+    const EDIT_SETTLES = { timeout: 10_000 };
     // The jump centred P0001 in the map; a line straight across it cuts it in two.
     const box = (await page.locator('[data-testid="map"]').boundingBox())!;
     const cx = box.x + box.width / 2, cy = box.y + box.height / 2;
@@ -130,7 +133,7 @@ describe('drawing and tagging a patch by keys', () => {
     await page.mouse.click(cx - 200, cy);
     await page.waitForTimeout(150);
     await page.mouse.dblclick(cx + 200, cy + 4);
-    await expect.poll(() => patchCount(page)).toBe(227);
+    await expect.poll(() => patchCount(page), EDIT_SETTLES).toBe(227);
     await expect.poll(() => saved(page)).toContain('All saved');
     const kept = Number((await page.locator('[data-testid="patch-measure"] dd').first().textContent())!.replace(/[^\d.]/g, ''));
     expect(kept).toBeLessThan(Number(area.replace(/[^\d.]/g, '')));
@@ -138,15 +141,15 @@ describe('drawing and tagging a patch by keys', () => {
     await page.keyboard.press('Escape');
     await page.keyboard.press('y');
     await page.mouse.click(cx, cy + 40);
-    await expect.poll(() => patchCount(page)).toBe(226);
+    await expect.poll(() => patchCount(page), EDIT_SETTLES).toBe(226);
     await expect.poll(() => page.locator('[data-testid="patch-measure"] dd').first().textContent()).toBe(area);
     // A join is one step, and so is a cut.
     await page.keyboard.press('Control+z');
-    await expect.poll(() => patchCount(page)).toBe(227); // the join undone: two pieces again
+    await expect.poll(() => patchCount(page), EDIT_SETTLES).toBe(227); // the join undone: two pieces again
     await expect.poll(() => saved(page)).toContain('All saved');
     await expect.poll(() => page.locator('[data-testid="patch-measure"] dd').first().textContent()).not.toBe(area);
     await page.keyboard.press('Control+z');
-    await expect.poll(() => patchCount(page)).toBe(226); // the cut undone
+    await expect.poll(() => patchCount(page), EDIT_SETTLES).toBe(226); // the cut undone
     await expect.poll(() => page.locator('[data-testid="patch-measure"] dd').first().textContent()).toBe(area);
     await expect.poll(() => saved(page)).toContain('All saved');
   });

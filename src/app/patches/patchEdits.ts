@@ -2,17 +2,7 @@ import type { SiteStore } from '../../store/SiteStore.ts';
 import type { LedgerEvent, Patch, SiteState, Tag } from '../../core/site/index.ts';
 import type { MultiPolygonRings } from '../../core/geometry/types.ts';
 import { newPatchId } from './patchIndex.ts';
-
-// Cut and join need a geometry library the first screen does without: loaded once the
-// desk is idle (see preloadOutlineEdits), or on first use.
-const outlineEdits = () => import('./outlineEdits.ts');
-
-/** Loads cut and join's code ahead of the first cut, when the page has nothing else to do. */
-export function preloadOutlineEdits(): void {
-  const load = () => void outlineEdits().catch(() => {}); // a failure shows on first use
-  if ('requestIdleCallback' in globalThis) requestIdleCallback(load, { timeout: 3000 });
-  else setTimeout(load, 1000);
-}
+import { mergeOutlines, splitOutline } from './outlineEdits.ts';
 
 // Outline edits of the desk, each one or more durable ledger events. Every edit reads
 // the state at its turn in the store's queue, so a `previous` value is never stale.
@@ -60,7 +50,6 @@ export function deletePatch(store: SiteStore, patchId: string, who: Actor): Prom
  * becomes a new patch carrying copies of the original's tags. Resolves to the new ids.
  */
 export async function splitPatch(store: SiteStore, patchId: string, line: [number, number][], who: Actor): Promise<string[]> {
-  const { splitOutline } = await outlineEdits();
   const patch = store.state.patches.get(patchId);
   if (!patch) return [];
   const [kept, ...others] = splitOutline(patch.geometry, line);
@@ -88,7 +77,6 @@ export async function splitPatch(store: SiteStore, patchId: string, line: [numbe
 
 /** Merges patch `other` into `into`: `into` takes the union and keeps its tags, `other` goes with its own. */
 export async function mergePatches(store: SiteStore, into: string, other: string, who: Actor): Promise<void> {
-  const { mergeOutlines } = await outlineEdits();
   const a = store.state.patches.get(into);
   const b = store.state.patches.get(other);
   if (!a || !b || into === other) return;
