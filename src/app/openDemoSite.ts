@@ -2,6 +2,7 @@ import type { Platform } from '../platform/types.ts';
 import { createRenderPool } from '../imagery/renderPool.ts';
 import { openForViewing } from '../imagery/pyramidCache.ts';
 import { tileStoreFor } from '../imagery/tileStore.ts';
+import { warmInspectWorkers } from '../imagery/inspectInWorker.ts';
 import { multispectralView, panchromaticView, startDefaultStretch } from './sceneView.ts';
 import type { BandInfo, FieldPolygons, MappedSite, RosterEntry, SceneView } from './site.ts';
 
@@ -37,14 +38,15 @@ export async function openDemoSite(platform: Platform, options: OpenOptions = {}
     }
   };
 
-  onProgress({ label: 'Reading the demo manifest', fraction: 0 });
-  const manifest = await readJson<DemoManifest>('manifest.json');
-  if (manifest.kind !== 'fellfield demo manifest') throw new Error('manifest.json: not a Fellfield demo manifest');
-
-  performance.mark('fellfield:manifest');
+  // The render workers and the header readers start while the manifest is read.
   const pool = createRenderPool();
+  warmInspectWorkers(4);
   const tiles = tileStoreFor(platform);
   try {
+    onProgress({ label: 'Reading the demo manifest', fraction: 0 });
+    const manifest = await readJson<DemoManifest>('manifest.json');
+    if (manifest.kind !== 'fellfield demo manifest') throw new Error('manifest.json: not a Fellfield demo manifest');
+    performance.mark('fellfield:manifest');
     const pairs = manifest.dates.map(({ date }) => {
       const panName = manifest.files.find((f) => f.date === date && f.role.startsWith('panchromatic'))?.name;
       const msName = manifest.files.find((f) => f.date === date && f.role.startsWith('multispectral'))?.name;

@@ -11,9 +11,27 @@ export class ImageryError extends Error {
   }
 }
 
+const newInspectWorker = () => new Worker(new URL('./inspect.worker.ts', import.meta.url), { type: 'module', name: 'fellfield-inspect' });
+
+// Workers started ahead of need (a worker takes tens of milliseconds to start), each used
+// for one file and then ended, as one started on demand is; let go when not taken soon.
+const spares: Worker[] = [];
+const SPARE_LIFE_MS = 20_000;
+let sparesTimer: ReturnType<typeof setTimeout> | null = null;
+
+/** Starts header readers for `count` files about to be opened, while other work goes on. */
+export function warmInspectWorkers(count: number): void {
+  while (spares.length < count) spares.push(newInspectWorker());
+  if (sparesTimer !== null) clearTimeout(sparesTimer);
+  sparesTimer = setTimeout(() => {
+    for (const worker of spares.splice(0)) worker.terminate();
+    sparesTimer = null;
+  }, SPARE_LIFE_MS);
+}
+
 /**
- * Reads a TIFF's header and directories in a worker, with a watchdog: a damaged or
- * hostile file that makes parsing spin is cut off after `timeoutMs`.
+ * Reads a TIFF's header and directories in a worker of its own, with a watchdog: a
+ * damaged or hostile file that makes parsing spin is cut off after `timeoutMs`.
  */
 export function inspectInWorker(
   platform: Pick<Platform, 'readRange'>,
@@ -22,7 +40,7 @@ export function inspectInWorker(
 ): Promise<TiffSummary> {
   const timeoutMs = options.timeoutMs ?? 15_000;
   return new Promise((resolve, reject) => {
-    const worker = new Worker(new URL('./inspect.worker.ts', import.meta.url), { type: 'module' });
+    const worker = spares.pop() ?? newInspectWorker();
     const finish = (outcome: () => void) => {
       clearTimeout(timer);
       options.signal?.removeEventListener('abort', onAbort);

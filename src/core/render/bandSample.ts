@@ -39,13 +39,46 @@ export function bandSample(values: ArrayLike<number>, noData: number | null = nu
 
 /** A sample from values already gathered (they are sorted in place). */
 export function sampleOf(values: Float64Array): BandSample {
-  values.sort();
+  sortAscending(values);
   let sum = 0;
   for (let i = 0; i < values.length; i++) sum += values[i];
   const mean = values.length ? sum / values.length : 0;
   let squares = 0;
   for (let i = 0; i < values.length; i++) squares += (values[i] - mean) ** 2;
   return { sorted: values, mean, sd: values.length ? Math.sqrt(squares / values.length) : 0 };
+}
+
+/** The widest value range sorted by counting (a 4 MB count table); wider goes to the comparison sort. */
+const COUNTING_RANGE = 1 << 20;
+
+/**
+ * Sorts in place, as `Float64Array.prototype.sort` does. Imagery samples are mostly
+ * integers of a narrow range (8- to 16-bit counts), which a counting sort orders in
+ * linear time: a quarter-million values in a few milliseconds rather than tens.
+ */
+export function sortAscending(values: Float64Array): void {
+  let lo = Infinity, hi = -Infinity;
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i];
+    // Not a plain integer (a fraction, NaN, -0, or out of the exact range): compare instead.
+    if (!Number.isSafeInteger(v) || Object.is(v, -0)) {
+      values.sort();
+      return;
+    }
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
+  // A table much longer than the sample would cost more than it saves.
+  if (values.length < 2 || hi - lo >= COUNTING_RANGE || hi - lo > 8 * values.length) {
+    values.sort();
+    return;
+  }
+  const counts = new Uint32Array(hi - lo + 1);
+  for (let i = 0; i < values.length; i++) counts[values[i] - lo]++;
+  let at = 0;
+  for (let k = 0; k < counts.length; k++) {
+    for (let c = counts[k]; c > 0; c--) values[at++] = k + lo;
+  }
 }
 
 /**

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { bandSample, histogramOf, limitsFor, percentileOfSorted } from '../../../src/core/render/bandSample.ts';
+import { bandSample, histogramOf, limitsFor, percentileOfSorted, sortAscending } from '../../../src/core/render/bandSample.ts';
 import { stretchValue } from '../../../src/core/render/stretch.ts';
 
 describe('band samples and stretch rules', () => {
@@ -59,5 +59,30 @@ describe('band samples and stretch rules', () => {
     expect(stretchValue(25, { min: 0, max: 100, gamma: 2 })).toBe(128);
     expect(stretchValue(-5, { min: 0, max: 100, gamma: 1 })).toBe(0);
     expect(stretchValue(500, { min: 0, max: 100, gamma: 1 })).toBe(255);
+  });
+
+  // Reference: ECMA-262 %TypedArray%.prototype.sort with no comparator (numeric order,
+  // -0 before +0, NaN last), as the engine implements it.
+  it('sorts every sample exactly as the typed-array sort does, counted or compared', () => {
+    let seed = 7;
+    const random = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+    const cases: number[][] = [
+      Array.from({ length: 50_000 }, () => Math.floor(random() * 2048)), // 11-bit counts
+      Array.from({ length: 50_000 }, () => Math.floor(random() * 65536) - 32768), // int16
+      Array.from({ length: 3000 }, () => Math.floor(random() * 1e9)), // too wide to count
+      Array.from({ length: 3000 }, () => random() * 100), // fractions
+      [3, -0, 0, 2, 1, 0, -0], // signed zeros
+      [5, NaN, 1, Infinity, -Infinity, 2],
+      [], [4],
+    ];
+    for (const values of cases) {
+      const ours = Float64Array.from(values);
+      sortAscending(ours);
+      const reference = Float64Array.from(values).sort();
+      expect(ours.length).toBe(reference.length);
+      let differing = 0;
+      for (let i = 0; i < ours.length; i++) if (!Object.is(ours[i], reference[i])) differing++;
+      expect(differing).toBe(0);
+    }
   });
 });
