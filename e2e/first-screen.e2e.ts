@@ -65,4 +65,25 @@ describe('the demo site on first start', () => {
     expect(late.lumaStdDev).toBeGreaterThan(10);
     expect(Math.abs(late.meanRed - early.meanRed) + Math.abs(late.meanGreen - early.meanGreen)).toBeGreaterThan(0.5);
   });
+
+  it('zooms to full resolution with =, and goes over the scene a screen at a time with Shift+arrows', async () => {
+    await page.keyboard.press('=');
+    await mapReady();
+    // The scale line's length on screen and the distance it names give metres per screen
+    // pixel: the demo's panchromatic pixel is 0.3 m (demo manifest).
+    const scale = await page.locator('.ol-scale-line-inner').evaluate((el) => ({ text: el.textContent ?? '', width: parseFloat((el as HTMLElement).style.width) }));
+    const metres = Number(/([\d.]+)\s*m$/.exec(scale.text)?.[1]);
+    expect(metres / scale.width).toBeCloseTo(0.3, 2);
+    const here = await layerCanvasStats(page, '.ol-layer canvas');
+    await page.keyboard.press('Shift+ArrowRight');
+    await mapReady();
+    await screenshot(page, 'first-screen-step');
+    const next = await layerCanvasStats(page, '.ol-layer canvas');
+    expect(next.lumaStdDev).toBeGreaterThan(10);
+    expect(Math.abs(next.meanRed - here.meanRed) + Math.abs(next.meanGreen - here.meanGreen) + Math.abs(next.lumaStdDev - here.lumaStdDev)).toBeGreaterThan(0.5);
+    await page.keyboard.press('Shift+ArrowLeft');
+    await mapReady();
+    const back = await layerCanvasStats(page, '.ol-layer canvas');
+    expect(Math.abs(back.meanRed - here.meanRed) + Math.abs(back.meanGreen - here.meanGreen) + Math.abs(back.lumaStdDev - here.lumaStdDev)).toBeLessThan(0.05);
+  });
 });

@@ -1,7 +1,8 @@
 // Imagery benchmarks in headless Chromium (no GPU): the app opens a generated site
 // (bench/imagery/browserScene.ts) from a local server, as it opens the demo.
 //   imagery.first-screen: navigation to the whole extent drawn (natural colour).
-//   imagery.pan-step: one screen's pan at full resolution in the pan-sharpened view, from the press.
+//   imagery.pan-step: one screen's step by key at full resolution in the pan-sharpened view,
+//   from the key, with read-ahead as the app runs it and (beside it) turned off.
 // Both are timed in the page's own clock up to the map's 'fellfield:map-ready' mark (the
 // render that completed the view), so the harness's polling is not counted.
 // Each beside its floor measured in the same run: decoding the very blocks the page
@@ -83,7 +84,7 @@ export async function runBrowserBenchmarks(size: BenchSize): Promise<BenchResult
     await context.addInitScript(() => {
       const w = window as unknown as { longestTask: number };
       w.longestTask = 0;
-      addEventListener('pointerdown', () => ((window as unknown as { lastPress: number }).lastPress = performance.now()), true);
+      addEventListener('keydown', () => ((window as unknown as { lastKey: number }).lastKey = performance.now()), true);
       new PerformanceObserver((list) => {
         for (const entry of list.getEntries()) w.longestTask = Math.max(w.longestTask, entry.duration);
       }).observe({ type: 'longtask', buffered: true });
@@ -125,58 +126,77 @@ export async function runBrowserBenchmarks(size: BenchSize): Promise<BenchResult
       firstBlocks = floor.blocks;
     }
 
-    // Full resolution, pan-sharpened: zoom in at the centre, then pan one screen at a time.
-    if (!page) throw new Error('no page');
-    const map = (await page.locator('[data-testid="map"]').boundingBox())!;
-    await page.mouse.move(map.x + map.width / 2, map.y + map.height / 2);
-    for (let i = 0; i < 14; i++) {
-      await page.mouse.wheel(0, -300);
-      await page.waitForTimeout(120);
-    }
-    await page.keyboard.press('s');
-    await ready(page);
-    await page.evaluate(() => ((window as unknown as { longestTask: number }).longestTask = 0));
-    const steps: number[] = [];
+    await page?.close();
+
+    // Full resolution, pan-sharpened: zoom in at the centre, then step one screen at a
+    // time by key (Shift+arrow), pausing on each screen until the reads stop, as an
+    // interpreter going over a scene does. Once with read-ahead off (each step reads its
+    // screen: that run's reads give each step's decode floor) and once as the app runs.
+    const moves = ['ArrowLeft', 'ArrowLeft', 'ArrowUp', 'ArrowRight', 'ArrowRight', 'ArrowUp', 'ArrowLeft'];
+    const quiet = async (p: Page) => {
+      // No new read for 400 ms: the step's screen and its read-ahead are done.
+      for (let seen = -1; seen !== requestCount;) {
+        seen = requestCount;
+        await p.waitForTimeout(400);
+      }
+    };
+    let requestCount = 0;
+    context.on('request', () => requestCount++);
+    const stepRun = async (address: string) => {
+      const p = await context.newPage();
+      await p.goto(address);
+      await ready(p);
+      const box = (await p.locator('[data-testid="map"]').boundingBox())!;
+      await p.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+      await p.keyboard.press('=');
+      await p.keyboard.press('s');
+      await ready(p);
+      await quiet(p);
+      await p.evaluate(() => ((window as unknown as { longestTask: number }).longestTask = 0));
+      const times: number[] = [];
+      const stepReads: (typeof reads)[] = [];
+      for (const key of moves) {
+        reads = [];
+        await p.keyboard.press(`Shift+${key}`);
+        await ready(p);
+        // Page clock, from the key to the render that completed the new screen.
+        times.push(await p.evaluate(() => performance.getEntriesByName('fellfield:map-ready').at(-1)!.startTime
+          - (window as unknown as { lastKey: number }).lastKey));
+        stepReads.push(reads);
+        await quiet(p);
+      }
+      const heap = await p.evaluate(() => (performance as unknown as { memory?: { usedJSHeapSize: number } }).memory?.usedJSHeapSize ?? 0);
+      const longest = await p.evaluate(() => (window as unknown as { longestTask: number }).longestTask);
+      await p.close();
+      return { times, stepReads, heap, longest };
+    };
+    const cold = await stepRun(`${server.url}?readahead=off`);
+    const warm = await stepRun(server.url);
     const stepFloors: number[] = [];
     const levels = new Set<number>();
-    const moves: [number, number][] = [[-1, 0], [-1, 0], [0, -1], [1, 0], [1, 0], [0, -1], [-1, 0]];
-    for (const [dx, dy] of moves) {
-      reads = [];
-      const x0 = map.x + map.width / 2, y0 = map.y + map.height / 2;
-      const x1 = x0 + dx * (map.width - 40), y1 = y0 + dy * (map.height - 40);
-      // Drag one screen less a margin, held still before release so no kinetic fling
-      // follows.
-      await page.mouse.move(x0, y0);
-      await page.mouse.down();
-      await page.mouse.move(x1, y1, { steps: 3 });
-      await page.waitForTimeout(60);
-      await page.mouse.up();
-      await ready(page);
-      // Page clock, from the press (tiles start loading while the drag goes on) to the
-      // render that completed the new view.
-      steps.push(await page.evaluate(() => performance.getEntriesByName('fellfield:map-ready').at(-1)!.startTime
-        - (window as unknown as { lastPress: number }).lastPress));
-      const floor = await decodeFloor(decoder, files, reads);
-      stepFloors.push(floor.ms);
-      for (const r of reads) {
+    for (const stepReads of cold.stepReads) {
+      stepFloors.push((await decodeFloor(decoder, files, stepReads)).ms);
+      for (const r of stepReads) {
         if (r.file !== 'pan.tif') continue;
         for (const [start, block] of files['pan.tif'].blocks) if (start >= r.offset && start < r.offset + r.length) levels.add(block.level);
       }
     }
-    const heap = await page.evaluate(() => (performance as unknown as { memory?: { usedJSHeapSize: number } }).memory?.usedJSHeapSize ?? 0);
-    const longest = await page.evaluate(() => (window as unknown as { longestTask: number }).longestTask);
+    const { heap, longest } = warm;
     await context.close();
 
     const n = (site.panSize * site.panSize) / 1e6;
     const first = summarize(firsts), firstFloor = summarize(firstFloors);
-    const step = summarize(steps.slice(1)), stepFloor = summarize(stepFloors.slice(1));
+    const step = summarize(warm.times), stepFloor = summarize(stepFloors), coldStep = summarize(cold.times);
     return [
       result('imagery.first-screen', firstBlocks, first, 'decode of the blocks that screen read, over 2 workers (floor)', firstFloor, {
         pan_mpix: n, viewport: [1280, 800], target_ms: 1000, target_ratio: 1 / 1.5,
         wall_ms_with_new_tab: Math.round(summarize(walls).median),
         parts_ms: medianParts(parts),
       }),
-      result('imagery.pan-step', steps.length - 1, step, 'decode of the blocks each step read, over 2 workers (floor)', stepFloor, {
+      result('imagery.pan-step', moves.length, step, "decode of the blocks of each step's screen (read by the same steps with read-ahead off), over 2 workers (floor)", stepFloor, {
+        each_ms: warm.times.map(Math.round),
+        read_ahead_off_ms: Math.round(coldStep.median), read_ahead_off_p95_ms: Math.round(coldStep.p95),
+        read_ahead_off_ratio: Math.round((stepFloor.median / coldStep.median) * 1000) / 1000,
         pan_levels_read: [...levels].sort(), target_ms: 300, target_ratio: 1 / 1.5,
         js_heap_mb: Math.round(heap / 1e5) / 10, longest_ui_task_ms: Math.round(longest), target_longest_task_ms: 50,
       }),

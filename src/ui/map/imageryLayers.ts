@@ -3,7 +3,9 @@ import LayerGroup from 'ol/layer/Group.js';
 import type RenderEvent from 'ol/render/Event.js';
 import type { ProjectionLike } from 'ol/proj.js';
 import type { OpenSite } from '../../app/site.ts';
-import { layerSource } from './rasterSource.ts';
+import { dropReadAhead, layerSource, readAhead, stopReadAhead } from './rasterSource.ts';
+import type DataTile from 'ol/source/DataTile.js';
+import type { Extent } from 'ol/extent.js';
 import { specKey, type CompareSpec, type LayerSpec } from './layerSpec.ts';
 
 const FLICKER_MS = 700;
@@ -44,7 +46,12 @@ export class ImageryLayers {
     const top = compare ? this.#layer(compare.layer, 'ol-layer imagery-compare') : null;
     this.#stopFlicker();
     if (this.#top && this.#top !== top) this.#detachClip(this.#top);
-    for (const layer of this.#layers.values()) layer.setVisible(layer === main || layer === top);
+    for (const layer of this.#layers.values()) {
+      const shown = layer === main || layer === top;
+      layer.setVisible(shown);
+      const source = layer.getSource();
+      if (!shown && source) dropReadAhead(source as DataTile);
+    }
     main?.setZIndex(0);
     this.#main = main;
     this.#top = top;
@@ -81,10 +88,29 @@ export class ImageryLayers {
     this.#top?.changed();
   }
 
+  /**
+   * Reads ahead the shown imagery over `extents` (nearest first) at `resolution`, beside
+   * the view `shown`: the screens the user may move to next are made while the workers
+   * are idle.
+   */
+  readAhead(extents: Extent[], resolution: number, shown: Extent): void {
+    for (const layer of [this.#main, this.#top]) {
+      const source = layer?.getSource();
+      if (source) readAhead(source as DataTile, extents, resolution, shown);
+    }
+  }
+
   dispose(): void {
     this.#stopFlicker();
-    for (const layer of this.#layers.values()) layer.dispose();
+    for (const layer of this.#layers.values()) this.#close(layer);
     this.#layers.clear();
+  }
+
+  #close(layer: TileLayer): void {
+    const source = layer.getSource();
+    if (source) stopReadAhead(source as DataTile);
+    source?.dispose();
+    layer.dispose();
   }
 
   #layer(spec: LayerSpec, className = 'ol-layer imagery-layer'): TileLayer | null {
@@ -111,8 +137,7 @@ export class ImageryLayers {
       if (layer === this.#main || layer === this.#top) continue;
       this.#layers.delete(key);
       this.group.getLayers().remove(layer);
-      layer.getSource()?.dispose();
-      layer.dispose();
+      this.#close(layer);
     }
   }
 

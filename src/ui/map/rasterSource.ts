@@ -7,6 +7,8 @@ import { renderSharpenedTile } from '../../imagery/sharpenedTile.ts';
 import type { StretchLimits } from '../../core/render/stretch.ts';
 import type { SceneView } from '../../app/site.ts';
 import type { LayerSpec } from './layerSpec.ts';
+import { getIntersection, intersects, isEmpty, type Extent } from 'ol/extent.js';
+import { TileWarmer } from './tileWarmer.ts';
 
 /** The raster's own tile pyramid as an OpenLayers tile grid: z 0 is its smallest overview. */
 export function rasterTileGrid(raster: Raster): TileGrid {
@@ -23,19 +25,60 @@ export function rasterTileGrid(raster: Raster): TileGrid {
 
 type TileLoader = (level: number, x: number, y: number, signal: AbortSignal) => Promise<TileImage>;
 
+type SourceTile = ImageBitmap | Uint8ClampedArray;
+
+/** Each source's read-ahead (see tileWarmer.ts). */
+const warmers = new WeakMap<DataTile, TileWarmer<SourceTile>>();
+
 function source(raster: Raster, projection: ProjectionLike, load: TileLoader): DataTile {
   const levelCount = raster.levelCount;
-  return new DataTile({
+  const warmer = new TileWarmer<SourceTile>(async (z, x, y, signal) => {
+    const tile = await load(levelCount - 1 - z, x, y, signal);
+    return 'rgba' in tile ? tile.rgba : tile;
+  });
+  const made = new DataTile({
     projection,
     tileGrid: rasterTileGrid(raster),
     interpolate: false,
     transition: 0,
     wrapX: false,
-    loader: async (z, x, y, { signal }) => {
-      const tile = await load(levelCount - 1 - z, x, y, signal);
-      return 'rgba' in tile ? tile.rgba : tile;
-    },
+    loader: (z, x, y, { signal }) => warmer.load(z, x, y, signal),
   });
+  warmers.set(made, warmer);
+  return made;
+}
+
+/**
+ * Reads ahead the tiles of a source over `extents` (in order) at the level the map would
+ * show at `resolution`, leaving out those of the view `shown`; a source without
+ * read-ahead is left alone.
+ */
+export function readAhead(source: DataTile, extents: Extent[], resolution: number, shown: Extent): void {
+  const warmer = warmers.get(source);
+  const grid = source.getTileGrid();
+  if (!warmer || !grid) return;
+  const z = grid.getZForResolution(resolution, source.zDirection);
+  const coords: [number, number, number][] = [];
+  for (const extent of extents) {
+    // Only the raster's own tiles, and none the map already has (those of the view shown).
+    const inside = getIntersection(extent, grid.getExtent());
+    if (isEmpty(inside)) continue;
+    grid.forEachTileCoord(inside, z, ([tz, x, y]) => {
+      const tile = grid.getTileCoordExtent([tz, x, y]);
+      if (!intersects(tile, shown) && intersects(tile, inside)) coords.push([tz, x, y]);
+    });
+  }
+  warmer.warm(coords);
+}
+
+/** Lets go what a source read ahead (its layer is hidden). */
+export function dropReadAhead(source: DataTile): void {
+  warmers.get(source)?.warm([]);
+}
+
+/** Ends a source's read-ahead (its layer is closed). */
+export function stopReadAhead(source: DataTile): void {
+  warmers.get(source)?.dispose();
 }
 
 /**
