@@ -2,7 +2,27 @@ import type { SiteStore } from '../../store/SiteStore.ts';
 import type { LedgerEvent, Patch, SiteState, Tag } from '../../core/site/index.ts';
 import type { MultiPolygonRings } from '../../core/geometry/types.ts';
 import { newPatchId } from './patchIndex.ts';
-import { mergeOutlines, splitOutline } from './outlineEdits.ts';
+
+// Cut and join need a geometry library the first screen does without: loaded once the
+// first view is drawn (preloadOutlineEdits), or on first use. Once loaded it is used
+// without an await, so a cut or join joins the store's queue at once, in the order the
+// user acted (an undo pressed right after a join comes after the join).
+type OutlineEdits = typeof import('./outlineEdits.ts');
+let loaded: OutlineEdits | null = null;
+let loading: Promise<OutlineEdits> | null = null;
+
+function outlineEdits(): Promise<OutlineEdits> {
+  loading ??= import('./outlineEdits.ts').then((module) => (loaded = module), (error: unknown) => {
+    loading = null; // tried again at the next use
+    throw error;
+  });
+  return loading;
+}
+
+/** Loads cut and join's code ahead of the first cut. */
+export function preloadOutlineEdits(): void {
+  outlineEdits().catch(() => {}); // a failure shows at the first use
+}
 
 // Outline edits of the desk, each one or more durable ledger events. Every edit reads
 // the state at its turn in the store's queue, so a `previous` value is never stale.
@@ -50,6 +70,7 @@ export function deletePatch(store: SiteStore, patchId: string, who: Actor): Prom
  * becomes a new patch carrying copies of the original's tags. Resolves to the new ids.
  */
 export async function splitPatch(store: SiteStore, patchId: string, line: [number, number][], who: Actor): Promise<string[]> {
+  const { splitOutline } = loaded ?? (await outlineEdits());
   const patch = store.state.patches.get(patchId);
   if (!patch) return [];
   const [kept, ...others] = splitOutline(patch.geometry, line);
@@ -77,6 +98,7 @@ export async function splitPatch(store: SiteStore, patchId: string, line: [numbe
 
 /** Merges patch `other` into `into`: `into` takes the union and keeps its tags, `other` goes with its own. */
 export async function mergePatches(store: SiteStore, into: string, other: string, who: Actor): Promise<void> {
+  const { mergeOutlines } = loaded ?? (await outlineEdits());
   const a = store.state.patches.get(into);
   const b = store.state.patches.get(other);
   if (!a || !b || into === other) return;
